@@ -1,0 +1,14 @@
+// One function per subcommand; each adds itself to the app and stores its exit code in `exit_code`.
+#pragma once
+
+#include <CLI/CLI.hpp>
+
+namespace whittle::cli {
+
+void add_compile_command(CLI::App& app, int& exit_code);
+void add_count_command(CLI::App& app, int& exit_code);
+void add_equiv_command(CLI::App& app, int& exit_code);
+void add_draw_command(CLI::App& app, int& exit_code);
+void add_demo_command(CLI::App& app, int& exit_code);
+
+}  // namespace whittle::cli

@@ -1,0 +1,18 @@
+// Limits that keep any input from hanging the compiler or exhausting memory; each has its own message.
+#pragma once
+
+#include <cstdint>
+
+namespace whittle::frontend {
+
+struct Limits {
+    uint64_t max_loop_trips = 1'000'000;     ///< iterations of one `for` / `repeat`
+    uint32_t max_recursion = 64;             ///< nesting of routine calls and `use`
+    uint32_t max_qubits = 1'000'000;         ///< wires in one circuit
+    uint64_t max_ops = 50'000'000;           ///< ops after elaboration
+    uint32_t max_expr_depth = 10'000;        ///< nesting of one expression
+    uint32_t max_expansion_terms = 65'536;   ///< terms of one Boolean expression's exact expansion
+    uint64_t max_file_bytes = 512ull << 20;  ///< size of one source file
+};
+
+}  // namespace whittle::frontend

@@ -1,0 +1,165 @@
+// The high-level IR: a qubit table with roles and a flat vector of ops (see DEVELOPERS.md, "IR").
+#pragma once
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include <boost/container/small_vector.hpp>
+
+#include "ir/angle.h"
+#include "ir/source_loc.h"
+
+namespace whittle::ir {
+
+/// What a wire promises: data (any state in, anything out), clean work wire (|0> in and out),
+/// dirty work wire (any state in, restored out).
+enum class Role : uint8_t { Data, Clean, Dirty };
+
+const char* role_name(Role r);  // "qubit", "ancilla", "borrow" (the .wq declaration keywords)
+
+/// A declared register. `scalar` registers were declared without a size (`qubit flag`) and print
+/// as a bare name; they are still registers of size 1 (OpenQASM export keeps the name).
+struct Register {
+    std::string name;
+    uint32_t first = 0;  // first wire index
+    uint32_t size = 0;
+    Role role = Role::Data;
+    bool scalar = false;
+};
+
+struct Qubit {
+    uint32_t reg = 0;    // index into Circuit::registers
+    uint32_t index = 0;  // index inside the register
+    Role role = Role::Data;
+};
+
+/// A classical register (measurement results). `measure w as m` makes a scalar register `m`.
+struct ClassicalRegister {
+    std::string name;
+    uint32_t first = 0;  // first bit index
+    uint32_t size = 0;
+    bool scalar = false;
+};
+
+/// A control literal: a wire and a polarity (negative = the op acts when the wire is |0>).
+class Lit {
+public:
+    constexpr Lit() = default;
+    static constexpr Lit pos(uint32_t wire) { return Lit(wire << 1); }
+    static constexpr Lit neg(uint32_t wire) { return Lit((wire << 1) | 1u); }
+    static constexpr Lit make(uint32_t wire, bool positive) { return positive ? pos(wire) : neg(wire); }
+    constexpr uint32_t wire() const { return bits_ >> 1; }
+    constexpr bool positive() const { return (bits_ & 1u) == 0; }
+    constexpr Lit flipped() const { return Lit(bits_ ^ 1u); }
+    constexpr uint32_t bits() const { return bits_; }
+    friend constexpr bool operator==(Lit a, Lit b) { return a.bits_ == b.bits_; }
+    friend constexpr bool operator!=(Lit a, Lit b) { return a.bits_ != b.bits_; }
+    friend constexpr bool operator<(Lit a, Lit b) { return a.bits_ < b.bits_; }
+
+private:
+    constexpr explicit Lit(uint32_t b) : bits_(b) {}
+    uint32_t bits_ = 0;
+};
+
+using LitVec = boost::container::small_vector<Lit, 3>;
+
+enum class OpKind : uint8_t {
+    X,        ///< target ^= AND(controls): X, CNOT, Toffoli, multi-controlled X
+    Phase,    ///< e^{i*angle*AND(controls)}: Z, S, T, CZ, CCZ, ...; no target, `controls` is the product
+    Parity,   ///< e^{i*angle*(w1 xor w2 xor ...)}; `controls` holds the wires (all positive)
+    H,        ///< Hadamard on target (optional controls)
+    Y,        ///< Pauli Y on target (optional controls)
+    SX,       ///< sqrt(X) on target (optional controls)
+    SXdg,     ///< inverse of sqrt(X)
+    RX,       ///< exp(-i*angle/2*X) on target (optional controls)
+    RY,       ///< exp(-i*angle/2*Y)
+    RZ,       ///< exp(-i*angle/2*Z)
+    U,        ///< U(theta, phi, lambda) = Rz(phi) Ry(theta) Rz(lambda) * e^{i(phi+lambda)/2} (OpenQASM u3)
+    Swap,     ///< target <-> target2 (optional controls)
+    ISwap,    ///< iSWAP on target, target2 (native two-qubit gate; no controls)
+    XX,       ///< exp(-i*angle/2*X(x)X) on target, target2 (native; no controls)
+    R,        ///< R(theta, phi) = exp(-i*theta/2*(cos(phi) X + sin(phi) Y)) (native; no controls)
+    Measure,  ///< measure target (Z basis) into classical bit `cbit`
+    Reset,    ///< target to |0>
+    Barrier,  ///< no effect; `controls` holds the wires it spans (all positive)
+};
+
+const char* op_kind_name(OpKind k);
+
+/// Which half of a compute/uncompute pair an op belongs to.
+enum class PairHalf : uint8_t { None, Compute, Uncompute };
+
+constexpr uint32_t kNoWire = 0xffffffffu;
+
+struct Op {
+    OpKind kind = OpKind::X;
+    PairHalf half = PairHalf::None;
+    uint32_t target = kNoWire;
+    uint32_t target2 = kNoWire;  ///< Swap, ISwap, XX
+    /// angles[0]: Phase/Parity/RX/RY/RZ/XX angle, U theta, R theta; angles[1]: U phi, R phi; angles[2]: U lambda.
+    Angle angles[3];
+    LitVec controls;             ///< control literals (sorted by wire after normalize); see OpKind for Parity/Barrier
+    uint32_t pair = 0;           ///< compute/uncompute pair id (0 = none)
+    int32_t cbit = -1;           ///< Measure: the classical bit written
+    int32_t cond_reg = -1;       ///< classically conditioned: index of the classical register (-1 = unconditioned)
+    uint64_t cond_value = 0;     ///< the op runs when that register's value equals cond_value
+    SourceLoc loc;
+
+    const Angle& angle() const { return angles[0]; }
+
+    static Op x(uint32_t target, LitVec controls = {});
+    static Op phase(Angle a, LitVec product);
+    static Op parity(Angle a, const std::vector<uint32_t>& wires);
+    static Op one(OpKind k, uint32_t target, Angle a = {}, LitVec controls = {});
+    static Op u(uint32_t target, Angle theta, Angle phi, Angle lambda);
+    static Op swap(uint32_t a, uint32_t b, LitVec controls = {});
+    static Op two(OpKind k, uint32_t a, uint32_t b, Angle angle = {});
+    static Op measure(uint32_t target, int32_t cbit);
+    static Op reset(uint32_t target);
+
+    bool is_conditioned() const { return cond_reg >= 0; }
+    /// Diagonal in the computational basis (Phase, Parity, RZ, and controlled versions of those).
+    bool is_diagonal() const;
+    /// Permutation of basis states (X-type: X/CNOT/Toffoli/MCX and swaps, unconditioned).
+    bool is_xtype() const;
+    /// Every wire the op touches (target(s), controls, parity or barrier wires), in no set order.
+    void wires(std::vector<uint32_t>& out) const;
+    std::vector<uint32_t> wires() const;
+};
+
+class Circuit {
+public:
+    std::vector<Register> registers;
+    std::vector<Qubit> qubits;
+    std::vector<ClassicalRegister> cregs;
+    uint32_t num_cbits = 0;
+    std::vector<Op> ops;
+    Angle global_phase;             ///< the circuit's unitary is e^{i*global_phase} times the product of ops
+    std::vector<std::string> files; ///< source files named by SourceLoc::file
+    uint32_t next_pair_id = 1;
+
+    /// Declares a register and returns the index of its first wire.
+    uint32_t add_register(const std::string& name, uint32_t size, Role role, bool scalar = false);
+    /// Declares a classical register and returns its index.
+    uint32_t add_creg(const std::string& name, uint32_t size, bool scalar = false);
+    uint32_t num_qubits() const { return uint32_t(qubits.size()); }
+    /// "a[3]" or, for a scalar register, "flag".
+    std::string wire_name(uint32_t wire) const;
+    /// Index of the register with this name, or -1.
+    int find_register(const std::string& name) const;
+    int find_creg(const std::string& name) const;
+    /// A fresh compute/uncompute pair id.
+    uint32_t new_pair_id() { return next_pair_id++; }
+    /// Same qubits, registers and files, no ops.
+    Circuit empty_copy() const;
+};
+
+/// Appends the inverse of `op` (one or more ops) to `out`. Throws UserError for Measure/Reset.
+void append_inverse(const Op& op, std::vector<Op>& out);
+
+/// Checks the IR invariants (wires and bits in range, no wire twice in one op, a target never among
+/// its own controls, kind-specific shapes). Throws InternalError naming the op on a violation.
+void verify(const Circuit& c);
+
+}  // namespace whittle::ir

@@ -1,0 +1,119 @@
+// Resource counting in one pass over the ops, with per-wire layer counters for depth and T-depth.
+#include "ir/resources.h"
+
+#include <algorithm>
+#include <vector>
+
+namespace whittle::ir {
+namespace {
+
+bool is_t_like(const Op& op) {
+    if (op.kind == OpKind::Phase && op.controls.size() == 1) {
+        int e = op.angles[0].eighths();
+        return e >= 0 && (e % 2) == 1;
+    }
+    if ((op.kind == OpKind::RZ || op.kind == OpKind::Parity) && op.controls.size() <= 1) {
+        if (op.kind == OpKind::Parity && op.controls.size() != 1) return false;
+        int e = op.angles[0].eighths();
+        return e >= 0 && (e % 2) == 1;
+    }
+    return false;
+}
+
+std::string controlled_prefix(size_t n) {
+    if (n == 0) return "";
+    if (n == 1) return "c";
+    if (n == 2) return "cc";
+    return "mc";
+}
+
+}  // namespace
+
+std::string gate_name(const Op& op) {
+    const size_t nc = op.controls.size();
+    switch (op.kind) {
+    case OpKind::X:
+        if (nc == 0) return "x";
+        if (nc == 1) return "cx";
+        if (nc == 2) return "ccx";
+        return "mcx";
+    case OpKind::Phase: {
+        int e = op.angles[0].eighths();
+        if (nc == 1) {
+            switch (e) {
+            case 4: return "z";
+            case 2: return "s";
+            case 6: return "sdg";
+            case 1: return "t";
+            case 7: return "tdg";
+            default: return "p";
+            }
+        }
+        if (nc == 2) return e == 4 ? "cz" : "cp";
+        if (nc == 3 && e == 4) return "ccz";
+        return "mcphase";
+    }
+    case OpKind::Parity: return nc == 1 ? "p" : "parity";
+    case OpKind::H: return controlled_prefix(nc) + "h";
+    case OpKind::Y: return controlled_prefix(nc) + "y";
+    case OpKind::SX: return controlled_prefix(nc) + "sx";
+    case OpKind::SXdg: return controlled_prefix(nc) + "sxdg";
+    case OpKind::RX: return controlled_prefix(nc) + "rx";
+    case OpKind::RY: return controlled_prefix(nc) + "ry";
+    case OpKind::RZ: return controlled_prefix(nc) + "rz";
+    case OpKind::U: return controlled_prefix(nc) + "u";
+    case OpKind::Swap: return controlled_prefix(nc) + "swap";
+    case OpKind::ISwap: return "iswap";
+    case OpKind::XX: return "xx";
+    case OpKind::R: return "r";
+    case OpKind::Measure: return "measure";
+    case OpKind::Reset: return "reset";
+    case OpKind::Barrier: return "barrier";
+    }
+    return "?";
+}
+
+Resources count_resources(const Circuit& c) {
+    Resources r;
+    r.qubits = c.num_qubits();
+    for (const Qubit& q : c.qubits) {
+        if (q.role == Role::Data) ++r.data_qubits;
+        if (q.role == Role::Clean) ++r.clean_qubits;
+        if (q.role == Role::Dirty) ++r.dirty_qubits;
+    }
+    std::vector<uint64_t> layer(c.num_qubits(), 0), tlayer(c.num_qubits(), 0);
+    std::vector<uint32_t> wires;
+    for (const Op& op : c.ops) {
+        if (op.kind == OpKind::Barrier) continue;
+        ++r.ops;
+        ++r.gates[gate_name(op)];
+        wires.clear();
+        op.wires(wires);
+        const bool t = is_t_like(op);
+        if (t) ++r.t_count;
+        if (op.kind == OpKind::X && op.controls.size() == 1) ++r.cnot_count;
+        if (op.kind == OpKind::X && op.controls.size() == 2) ++r.toffoli_count;
+        if (op.kind == OpKind::X && op.controls.size() >= 3) ++r.mcx_count;
+        if (op.kind == OpKind::Measure) ++r.measurements;
+        if (wires.size() == 2) ++r.two_qubit_count;
+        const bool rotation = op.kind == OpKind::Phase || op.kind == OpKind::Parity || op.kind == OpKind::RX ||
+                              op.kind == OpKind::RY || op.kind == OpKind::RZ;
+        if (rotation && !op.angles[0].is_multiple_of_pi_over(4)) ++r.non_clifford_rotations;
+        uint64_t l = 0, tl = 0;
+        for (uint32_t w : wires) {
+            l = std::max(l, layer[w]);
+            tl = std::max(tl, tlayer[w]);
+        }
+        ++l;
+        if (t) ++tl;
+        for (uint32_t w : wires) {
+            layer[w] = l;
+            tlayer[w] = tl;
+        }
+        r.depth = std::max(r.depth, l);
+        r.t_depth = std::max(r.t_depth, tl);
+    }
+    return r;
+}
+
+}  // namespace whittle::ir

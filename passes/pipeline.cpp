@@ -1,0 +1,73 @@
+// The pipelines for each -O level, written out in one place, and the pass runner.
+#include "passes/pipeline.h"
+
+#include <chrono>
+
+#include <fmt/format.h>
+
+#include "ir/error.h"
+#include "ir/resources.h"
+#include "passes/registry.h"
+
+namespace whittle::passes {
+
+std::vector<std::string> pipeline_for(const PassOptions& opts) {
+    std::vector<std::string> p;
+    // -O0 runs nothing at high level; lowering (when a target is given) always runs.
+    (void)opts;
+    return p;
+}
+
+std::vector<std::string> parse_pass_list(const std::string& list) {
+    std::vector<std::string> names;
+    size_t start = 0;
+    while (start <= list.size()) {
+        size_t comma = list.find(',', start);
+        if (comma == std::string::npos) comma = list.size();
+        std::string name = list.substr(start, comma - start);
+        if (!name.empty()) {
+            if (!find_pass(name)) {
+                std::string known;
+                for (const PassInfo& p : all_passes()) known += (known.empty() ? "" : ", ") + std::string(p.name);
+                throw UserError(fmt::format("unknown pass '{}' (known passes: {})", name, known));
+            }
+            names.push_back(name);
+        }
+        start = comma + 1;
+    }
+    return names;
+}
+
+std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string>& names, const PassOptions& opts,
+                                   const PipelineHooks& hooks) {
+    std::vector<PassRecord> records;
+    for (size_t i = 0; i < names.size(); ++i) {
+        const PassInfo* info = find_pass(names[i]);
+        if (!info) throw UserError(fmt::format("unknown pass '{}'", names[i]));
+        if (hooks.progress) hooks.progress(info->name, i, names.size());
+        PassRecord rec;
+        rec.name = info->name;
+        ir::Resources before = ir::count_resources(c);
+        rec.ops_before = c.ops.size();
+        rec.t_before = int64_t(before.t_count);
+        rec.cnot_before = int64_t(before.cnot_count);
+        ir::Circuit snapshot;
+        if (hooks.verify) snapshot = c;
+        auto t0 = std::chrono::steady_clock::now();
+        rec.result = info->run(c, opts);
+        rec.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+        rec.changed = rec.result.changed;
+        ir::verify(c);
+        ir::Resources after = ir::count_resources(c);
+        rec.ops_after = c.ops.size();
+        rec.t_after = int64_t(after.t_count);
+        rec.cnot_after = int64_t(after.cnot_count);
+        if (hooks.verify && rec.changed) rec.checked_by = hooks.verify(rec.name, snapshot, c);
+        if (hooks.after_pass && rec.changed) hooks.after_pass(rec.name, c);
+        records.push_back(std::move(rec));
+    }
+    if (hooks.progress) hooks.progress("done", names.size(), names.size());
+    return records;
+}
+
+}  // namespace whittle::passes

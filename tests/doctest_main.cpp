@@ -1,0 +1,3 @@
+// The shared doctest main for every unit-test executable.
+#define DOCTEST_CONFIG_IMPLEMENT_WITH_MAIN
+#include <doctest/doctest.h>
