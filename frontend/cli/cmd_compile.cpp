@@ -6,6 +6,7 @@
 
 #include "frontend/cli/commands.h"
 #include "frontend/cli/driver.h"
+#include "frontend/cli/verify_hook.h"
 #include "frontend/load.h"
 #include "ir/printer.h"
 #include "lowering/emit_qasm.h"
@@ -76,7 +77,14 @@ int run_compile(const CompileArgs& a) {
                     if (d == name || d == "all") std::cerr << "# after " << name << "\n" << ir::print_wq(now);
             };
         }
-        std::vector<passes::PassRecord> records = passes::run_passes(c, names, po, hooks);
+        if (a.verify) hooks.verify = PassVerifier(verify_folder_for(a.output), passes::EquivOptions{});
+        std::vector<passes::PassRecord> records;
+        try {
+            records = passes::run_passes(c, names, po, hooks);
+        } catch (const VerifyFailure& failure) {
+            std::cerr << failure.what();
+            return kCheckFailed;
+        }
         if (a.stats || a.time_passes) {
             for (const passes::PassRecord& r : records) {
                 std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
