@@ -392,6 +392,11 @@ void Elaborator::exec_loop(const File& f, const Stmt& s) {
                             loc);
     }
     for (int64_t i = first; i <= last; ++i) {
+        if (++steps_ > limits_.max_ops)
+            throw UserError(fmt::format("elaboration ran more than {} statements and loop iterations (the op limit; "
+                                        "a loop nest too large?)",
+                                        limits_.max_ops),
+                            loc);
         size_t mark = locals_.size();
         if (s.kind == StmtKind::For) {
             Binding b;
