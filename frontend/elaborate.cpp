@@ -25,6 +25,7 @@ ir::Circuit Elaborator::run(uint32_t file_id) {
         use_stack_.push_back(canon);
     }
     const File& f = load(file_id);
+    c_.ops.reserve(f.stmts.size());
     exec_file(f);
     c_.files.clear();
     for (uint32_t i = 0; i < sm_.size(); ++i) c_.files.push_back(sm_.name(i));
