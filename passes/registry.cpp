@@ -1,12 +1,22 @@
 // The pass registry: add a pass by adding its header and one line here.
 #include "passes/registry.h"
 
+#include "passes/cancel.h"
+#include "passes/merge_controls.h"
+#include "passes/normalize.h"
+
 namespace whittle::passes {
 
 const std::vector<PassInfo>& all_passes() {
     static const std::vector<PassInfo> passes = {
-        // High-level passes (on multi-controlled ops and phase polynomials) go here,
-        // then the lowering steps, then the low-level passes.
+        // High-level passes (on multi-controlled ops and phase polynomials).
+        {"normalize", "canonical forms: sorted literals, diagonal gates as phases, zero angles dropped", Stage::HighLevel,
+         normalize},
+        {"cancel", "commutation-aware cancellation of inverse pairs, merging of phases and rotations", Stage::HighLevel,
+         cancel},
+        {"merge-controls", "op under C&x and C&!x -> op under C; the control split that cancels", Stage::HighLevel,
+         merge_controls},
+        // Lowering steps, then the low-level passes.
     };
     return passes;
 }
