@@ -14,7 +14,15 @@ namespace whittle::passes {
 std::vector<std::string> pipeline_for(const PassOptions& opts) {
     std::vector<std::string> p;
     // -O0 runs nothing at high level; lowering (when a target is given) always runs.
-    (void)opts;
+    if (!opts.target.empty()) {
+        // Lowering (owned by the lowering branch): pairs and free wires are found on the
+        // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
+        // Clifford+T (nct keeps them), then the target's gates and its own cleanup.
+        p.insert(p.end(), {"pair-uncompute", "plan-ancillas", "lower-controls"});
+        if (opts.target != "nct") p.push_back("lower-toffoli");
+        p.insert(p.end(), {"to-target", "fuse-1q"});
+        if (opts.target != "nct" && opts.target != "clifford+t") p.insert(p.end(), {"resynth-2q", "fuse-1q"});
+    }
     return p;
 }
 
