@@ -13,16 +13,35 @@ namespace whittle::passes {
 
 std::vector<std::string> pipeline_for(const PassOptions& opts) {
     std::vector<std::string> p;
-    // -O0 runs nothing at high level; lowering (when a target is given) always runs.
-    if (!opts.target.empty()) {
-        // Lowering (owned by the lowering branch): pairs and free wires are found on the
-        // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
-        // Clifford+T (nct keeps them), then the target's gates and its own cleanup.
-        p.insert(p.end(), {"pair-uncompute", "plan-ancillas", "lower-controls"});
-        if (opts.target != "nct") p.push_back("lower-toffoli");
-        p.insert(p.end(), {"to-target", "fuse-1q"});
-        if (opts.target != "nct" && opts.target != "clifford+t") p.insert(p.end(), {"resynth-2q", "fuse-1q"});
+    auto add = [&](std::initializer_list<const char*> names) {
+        for (const char* n : names) p.emplace_back(n);
+    };
+    const int level = opts.level;
+    // -O0: no optimization; only the lowering (below) runs when a target is given.
+    if (level >= 1) {
+        // normalize first: every later pass compares ops structurally and expects phases as
+        // Phase ops with sorted literals. cancel then removes the cheap inverse pairs (nested
+        // compute/uncompute halves first) so later passes see less.
+        add({"normalize", "cancel"});
     }
+    if (level >= 2) {
+        // merge-controls after cancel: cancellation can leave op(C&x), op(C&!x) side by side.
+        // A second cancel picks up what the merges exposed (a merged op can meet its inverse).
+        add({"merge-controls", "cancel"});
+    }
+    if (level >= 3) {
+        // -O3 repeats the merge/cancel round: merges expose cancellations and vice versa.
+        add({"merge-controls", "cancel"});
+    }
+    if (opts.target.empty()) return p;
+    // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
+    // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
+    // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
+    // and KAK resynthesis of two-qubit blocks on the rotation targets).
+    add({"pair-uncompute", "plan-ancillas", "lower-controls"});
+    if (opts.target != "nct") add({"lower-toffoli"});
+    add({"to-target", "fuse-1q"});
+    if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
     return p;
 }
 

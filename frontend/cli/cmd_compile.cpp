@@ -6,9 +6,11 @@
 
 #include "frontend/cli/commands.h"
 #include "frontend/cli/driver.h"
+#include "frontend/cli/progress.h"
 #include "frontend/load.h"
 #include "ir/printer.h"
 #include "lowering/emit_qasm.h"
+#include "lowering/report.h"
 #include "passes/pipeline.h"
 
 namespace whittle::cli {
@@ -19,7 +21,6 @@ struct CompileArgs {
     std::string output;
     std::string target;
     int level = 2;
-    bool o0 = false, o1 = false, o2 = false, o3 = false;
     std::string optimize_for = "t";
     bool allow_measurement = false;
     bool verify = false;
@@ -63,7 +64,7 @@ int run_compile(const CompileArgs& a) {
 
         passes::PassOptions po;
         po.target = a.target;
-        po.level = a.o0 ? 0 : a.o1 ? 1 : a.o2 ? 2 : a.o3 ? 3 : a.level;
+        po.level = a.level;
         po.optimize_for = parse_metric(a.optimize_for);
         po.allow_measurement = a.allow_measurement;
         po.extra_ancillas = a.extra_ancillas;
@@ -77,7 +78,13 @@ int run_compile(const CompileArgs& a) {
                     if (d == name || d == "all") std::cerr << "# after " << name << "\n" << ir::print_wq(now);
             };
         }
+        // The input as read, kept for the report's "input_resources" only when a report is asked for.
+        ir::Circuit source;
+        if (!a.report.empty()) source = c;
+        ProgressLine progress(!a.quiet);
+        hooks.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
         std::vector<passes::PassRecord> records = passes::run_passes(c, names, po, hooks);
+        progress.finish();
         if (a.stats || a.time_passes) {
             for (const passes::PassRecord& r : records) {
                 std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
@@ -95,6 +102,19 @@ int run_compile(const CompileArgs& a) {
         else if (format == "qasm2") text = lowering::emit_qasm2(c);
         else if (format == "qasm3") text = lowering::emit_qasm3(c);
         else throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", format));
+        if (!a.report.empty()) {
+            lowering::CompileReportInput ri;
+            ri.input = a.input;
+            ri.source = &source;
+            ri.output = &c;
+            ri.options = po;
+            ri.explicit_passes = a.passes;
+            ri.emit = format;
+            ri.verify = a.verify;
+            ri.records = std::move(records);
+            refuse_overwriting_input(a.input, a.report);
+            write_output(a.report, lowering::compile_report(ri).dump(2) + "\n");
+        }
         write_output(a.output, text);
         return kOk;
     });
@@ -109,10 +129,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_option("-o,--output", args->output, "output file (format by extension: .wq, .qasm, .qasm3); stdout when absent");
     cmd->add_option("--target", args->target,
                     "native gate set: clifford+t, cx+rz+sx, cz+rx+rz, iswap+rz+rx, xx+r, u+cx, nct (default: stay high level)");
-    cmd->add_flag("-O0", args->o0, "no optimization");
-    cmd->add_flag("-O1", args->o1, "cheap local optimizations");
-    cmd->add_flag("-O2", args->o2, "the default pipeline");
-    cmd->add_flag("-O3", args->o3, "everything, including the expensive passes");
+    // One short option with an attached value: CLI11 reads -O0 .. -O3 as -O with 0 .. 3.
+    cmd->add_option("-O", args->level, "optimization level: -O0 none, -O1 cheap local, -O2 the default pipeline, -O3 everything")
+        ->check(CLI::Range(0, 3));
     cmd->add_option("--optimize-for", args->optimize_for, "metric the constructions compete on: t, 2q or depth")
         ->capture_default_str();
     cmd->add_flag("--allow-measurement", args->allow_measurement,
