@@ -34,7 +34,14 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         add({"merge-controls", "cancel"});
     }
     if (opts.target.empty()) return p;
-    // Lowering to the target gate set: the lowering steps are appended here (lowering/).
+    // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
+    // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
+    // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
+    // and KAK resynthesis of two-qubit blocks on the rotation targets).
+    add({"pair-uncompute", "plan-ancillas", "lower-controls"});
+    if (opts.target != "nct") add({"lower-toffoli"});
+    add({"to-target", "fuse-1q"});
+    if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
     return p;
 }
 
