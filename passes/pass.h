@@ -23,11 +23,24 @@ struct PassOptions {
     double epsilon = 1e-10;           ///< per-rotation approximation error (clifford+t)
 };
 
+/// The decomposition a lowering step chose for one op; the JSON report lists these under
+/// "constructions" (docs/report-schema.md). Lowering passes push one per op they rewrite.
+struct Construction {
+    std::string op;          ///< the op as it read before lowering (ir::print_op), e.g. "flag ^= a[0] & a[1] & a[2]"
+    std::string method;      ///< the construction's name, e.g. "clean-v-chain", "toffoli-7t", "temporary-and"
+    std::string reason;      ///< why it won, e.g. "2 clean wires free: w[0], w[1]" ("" = the only choice)
+    ir::SourceLoc loc;       ///< where the op came from (line 0 = compiler-made)
+    int64_t t_count = -1;    ///< T gates it cost (-1 = not counted)
+    int64_t cnot_count = -1; ///< CNOTs it cost (-1 = not counted)
+};
+
 /// What a pass did. `changed` is false exactly when the circuit was left untouched.
 struct PassResult {
     bool changed = false;
     std::vector<std::pair<std::string, int64_t>> stats;  ///< named counters ("pairs-cancelled", 3)
-    std::vector<std::string> notes;                      ///< e.g. the construction chosen for an op
+    std::vector<std::string> notes;                      ///< free-form remarks, listed per pass in the report
+    std::vector<Construction> constructions;             ///< the construction chosen for each lowered op
+    double error_bound = 0;  ///< operator-norm error this pass introduced (rotation approximation); 0 = exact
     void count(const std::string& name, int64_t by = 1);
 };
 

@@ -19,7 +19,6 @@ struct CompileArgs {
     std::string output;
     std::string target;
     int level = 2;
-    bool o0 = false, o1 = false, o2 = false, o3 = false;
     std::string optimize_for = "t";
     bool allow_measurement = false;
     bool verify = false;
@@ -63,7 +62,7 @@ int run_compile(const CompileArgs& a) {
 
         passes::PassOptions po;
         po.target = a.target;
-        po.level = a.o0 ? 0 : a.o1 ? 1 : a.o2 ? 2 : a.o3 ? 3 : a.level;
+        po.level = a.level;
         po.optimize_for = parse_metric(a.optimize_for);
         po.allow_measurement = a.allow_measurement;
         po.extra_ancillas = a.extra_ancillas;
@@ -109,10 +108,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_option("-o,--output", args->output, "output file (format by extension: .wq, .qasm, .qasm3); stdout when absent");
     cmd->add_option("--target", args->target,
                     "native gate set: clifford+t, cx+rz+sx, cz+rx+rz, iswap+rz+rx, xx+r, u+cx, nct (default: stay high level)");
-    cmd->add_flag("-O0", args->o0, "no optimization");
-    cmd->add_flag("-O1", args->o1, "cheap local optimizations");
-    cmd->add_flag("-O2", args->o2, "the default pipeline");
-    cmd->add_flag("-O3", args->o3, "everything, including the expensive passes");
+    // One short option with an attached value: CLI11 reads -O0 .. -O3 as -O with 0 .. 3.
+    cmd->add_option("-O", args->level, "optimization level: -O0 none, -O1 cheap local, -O2 the default pipeline, -O3 everything")
+        ->check(CLI::Range(0, 3));
     cmd->add_option("--optimize-for", args->optimize_for, "metric the constructions compete on: t, 2q or depth")
         ->capture_default_str();
     cmd->add_flag("--allow-measurement", args->allow_measurement,
