@@ -344,6 +344,38 @@ uint64_t cube_cost(const Cube& c, EsopCost cost) {
     return toffolis * 1'000'000 + 1000 + k;
 }
 
+std::vector<ir::LitVec> minimize_esop(const std::vector<ir::LitVec>& cubes) {
+    std::vector<uint32_t> wires;  // variable i = wire wires[i]
+    std::unordered_map<uint32_t, unsigned> var_of;
+    std::vector<Cube> in;
+    for (const ir::LitVec& lits : cubes) {
+        Cube c;
+        bool zero = false;
+        for (ir::Lit l : lits) {
+            auto [it, fresh] = var_of.emplace(l.wire(), unsigned(wires.size()));
+            if (fresh) {
+                if (wires.size() == 64) return cubes;
+                wires.push_back(l.wire());
+            }
+            bool contradiction = false;
+            c = c.conjoin(Cube::literal(it->second, l.positive()), contradiction);
+            zero = zero || contradiction;  // x & !x: the cube is 0
+        }
+        if (!zero) in.push_back(c);
+    }
+    std::vector<ir::LitVec> out;
+    for (const Cube& c : minimize_esop(std::move(in))) {
+        ir::LitVec lits;
+        for (uint64_t rest = c.care; rest; rest &= rest - 1) {
+            unsigned v = unsigned(__builtin_ctzll(rest));
+            lits.push_back(ir::Lit::make(wires[v], (c.polarity >> v) & 1));
+        }
+        std::sort(lits.begin(), lits.end(), [](ir::Lit a, ir::Lit b) { return a.wire() < b.wire(); });
+        out.push_back(std::move(lits));
+    }
+    return out;
+}
+
 std::vector<Cube> minimize_esop(std::vector<Cube> cubes, EsopCost cost) {
     for (const Cube& c : cubes) WHITTLE_ASSERT((c.polarity & ~c.care) == 0 && "cube polarity outside its care set");
     cancel_duplicates(cubes);

@@ -4,6 +4,8 @@
 #include <cstdint>
 #include <vector>
 
+#include "ir/circuit.h"
+
 namespace whittle::frontend {
 
 /// One product term of an exclusive sum of products: the AND of literals over variables 0..63.
@@ -51,5 +53,10 @@ uint64_t cube_cost(const Cube& c, EsopCost cost = EsopCost::Toffolis);
 /// cost), the rewriting rules of the EXORCISM family of minimizers (Song & Perkowski 1996;
 /// Mishchenko & Perkowski 2001; from memory). The cheapest result wins.
 std::vector<Cube> minimize_esop(std::vector<Cube> cubes, EsopCost cost = EsopCost::Toffolis);
+
+/// The same on products of control literals over wires (the elaborator's exact ESOP): wires become
+/// variables 0..63 in order of first appearance. Over more than 64 distinct wires the cubes come
+/// back unchanged. Literals in each returned cube are sorted by wire.
+std::vector<ir::LitVec> minimize_esop(const std::vector<ir::LitVec>& cubes);
 
 }  // namespace whittle::frontend
