@@ -187,11 +187,12 @@ TEST_CASE("esop: textbook functions from their minterm expansions") {
 }
 
 TEST_CASE("esop: constants and cancellation") {
-    CHECK(minimize_esop({}).empty());
-    CHECK(minimize_esop({Cube{}, Cube{}}).empty());                              // 1 ^ 1 = 0
-    CHECK(minimize_esop({Cube::literal(5, true), Cube::literal(5, false)}) == std::vector<Cube>{Cube{}});  // x ^ !x = 1
-    // a ^ a&b = a&!b: one Toffoli-free?  no: two literals, one cube
-    std::vector<Cube> r = minimize_esop({Cube::literal(0, true), Cube{3, 3}});
+    using Esop = std::vector<Cube>;
+    CHECK(minimize_esop(Esop{}).empty());
+    CHECK(minimize_esop(Esop{Cube{}, Cube{}}).empty());  // 1 ^ 1 = 0
+    CHECK(minimize_esop(Esop{Cube::literal(5, true), Cube::literal(5, false)}) == Esop{Cube{}});  // x ^ !x = 1
+    // a ^ a&b = a&!b: one cube of two literals
+    std::vector<Cube> r = minimize_esop(Esop{Cube::literal(0, true), Cube{3, 3}});
     REQUIRE(r.size() == 1);
     CHECK(r[0] == Cube{3, 1});
 }
