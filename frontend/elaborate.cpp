@@ -76,7 +76,8 @@ void Elaborator::check_not_controlled(ir::SourceLoc loc, const char* what) const
 }
 
 void Elaborator::check_target_free(uint32_t wire, ir::SourceLoc loc) const {
-    for (Lit l : ctx_.controls)
+    for (const ir::LitVec* controls : {&ctx_.controls, &lifted_controls_})
+      for (Lit l : *controls)
         if (l.wire() == wire)
             throw UserError(fmt::format("'{}' is a control of the enclosing 'when' and cannot also be a target",
                                         c_.wire_name(wire)),

@@ -97,7 +97,17 @@ void Elaborator::exec_compute(const File& f, const Stmt& s) {
     uint32_t pair = c_.new_pair_id();
     size_t start = c_.ops.size();
     ir::Angle phase_before = c_.global_phase;
+    // Under `when` (or a classical `if`) only the middle part is controlled: C(A B A^-1) = A C(B) A^-1,
+    // since A^-1 undoes A whatever the control's value.
+    Ctx outer = ctx_;
+    ir::LitVec lifted_before = lifted_controls_;
+    for (ir::Lit l : outer.controls) lifted_controls_.push_back(l);
+    ctx_.controls.clear();
+    ctx_.cond_reg = -1;
+    ctx_.cond_value = 0;
     exec_block(f, s.body);
+    ctx_ = outer;
+    lifted_controls_ = lifted_before;
     size_t end_a = c_.ops.size();
     ir::Angle phase_a = c_.global_phase - phase_before;
     for (size_t i = start; i < end_a; ++i) {

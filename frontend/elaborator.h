@@ -107,6 +107,7 @@ private:
     std::unordered_set<std::string> register_names_;
     std::unordered_map<uint32_t, uint32_t> fresh_counter_;  ///< per routine symbol
     Ctx ctx_;
+    ir::LitVec lifted_controls_;  ///< `when` controls not applied inside a compute block; still not targets
     uint64_t steps_ = 0;
     mutable BoolExpr scratch_;
 };

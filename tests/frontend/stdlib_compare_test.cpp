@@ -70,3 +70,19 @@ TEST_CASE("stdlib: equals_const is one multi-controlled X") {
     for (auto l : c.ops[0].controls) negative += !l.positive();
     CHECK(negative == 3);  // 37 = 100101b has three 0 bits
 }
+
+TEST_CASE("stdlib: under when only the middle of a compute/uncompute pair is controlled") {
+    // C(A B A^-1) = A C(B) A^-1: the controlled comparator is the plain carry chain around one
+    // Toffoli (ctl & carry -> f), not a chain of 3-control gates.
+    whittle::ir::Circuit c = load("use \"arith\"\nqubit a[8], b[8], f, ctl\nwhen ctl { less_than(a, b, f) }\n");
+    unsigned toffoli = 0, mcx = 0;
+    for (const auto& op : c.ops) {
+        if (op.kind != whittle::ir::OpKind::X) continue;
+        toffoli += op.controls.size() == 2;
+        mcx += op.controls.size() > 2;
+    }
+    CHECK(toffoli == 2 * 8 + 1);
+    CHECK(mcx == 0);
+    // a `when` control may still not be changed inside the lifted compute block
+    CHECK_THROWS_AS(load("qubit a, b, t\nwhen a { compute { a ^= b } then { t ^= a } }\n"), whittle::UserError);
+}
