@@ -26,6 +26,7 @@ ir::Circuit Elaborator::run(uint32_t file_id) {
         use_stack_.push_back(canon);
     }
     const File& f = load(file_id);
+    c_.ops.reserve(f.stmts.size());
     exec_file(f);
     c_.files.clear();
     for (uint32_t i = 0; i < sm_.size(); ++i) c_.files.push_back(sm_.name(i));
@@ -406,6 +407,11 @@ void Elaborator::exec_loop(const File& f, const Stmt& s) {
                             loc);
     }
     for (int64_t i = first; i <= last; ++i) {
+        if (++steps_ > limits_.max_ops)
+            throw UserError(fmt::format("elaboration ran more than {} statements and loop iterations (the op limit; "
+                                        "a loop nest too large?)",
+                                        limits_.max_ops),
+                            loc);
         size_t mark = locals_.size();
         if (s.kind == StmtKind::For) {
             Binding b;

@@ -1,6 +1,9 @@
 // The .wq token scanner, built from Spirit X3 primitives matched at the current position.
 #include "frontend/wq_lexer.h"
 
+#include <charconv>
+#include <cmath>
+
 #include <boost/spirit/home/x3.hpp>
 
 namespace whittle::frontend {
@@ -131,7 +134,10 @@ Token Lexer::next(bool skip_newlines) {
             if (s.find_first_of(".eE") != std::string_view::npos) {
                 pos_ = p;
                 t.kind = Tok::Real;
-                t.dval = d;
+                // X3 finds the literal's extent; from_chars rounds correctly, so 17 printed digits
+                // read back to the same double.
+                auto r = std::from_chars(s.data(), s.data() + s.size(), d);
+                t.dval = r.ec == std::errc() ? d : HUGE_VAL;
                 t.text = s;
                 return t;
             }
