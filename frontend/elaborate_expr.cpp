@@ -207,7 +207,7 @@ Number Elaborator::eval_integer_op(const File& f, const Expr& e) const {
                    : e.kind == ExprKind::Shl ? "<<" : ">>";
     if (!ints) {
         if (e.kind == ExprKind::And || e.kind == ExprKind::Xor || e.kind == ExprKind::Or)
-            fail(f, e, fmt::format("'{}' applies to wires in a Boolean expression, or to two integers", op));
+            fail(f, e, fmt::format("'{}' applies to wires in a Boolean expression, not to numbers", op));
         fail(f, e, fmt::format("'{}' needs two integers", op));
     }
     switch (e.kind) {
