@@ -27,6 +27,9 @@ ROUTINES = {
     "mod_add_const (N = 2^n - 1, k = 5)": ("qubit b[{n}]", "mod_add_const(b, 5, {N})"),
     "gf2_mul (trinomial / pentanomial)": ("qubit a[{n}], b[{n}], c[{n}]", "gf2_mul(a, b, c, {poly})"),
     "diffuse": ("qubit r[{n}]", "diffuse(r)"),
+    "when ctl { add }": ("qubit a[{n}], b[{n}], ctl", "when ctl {{ add(a, b) }}"),
+    "when ctl { add_and }": ("qubit a[{n}], b[{n}], ctl", "when ctl {{ add_and(a, b) }}"),
+    "when ctl { less_than }": ("qubit a[{n}], b[{n}], f, ctl", "when ctl {{ less_than(a, b, f) }}"),
 }
 # x^4+x+1, x^8+x^4+x^3+x+1, x^16+x^5+x^3+x+1, x^32+x^7+x^3+x^2+1 (bit n left implicit)
 POLY = {4: 19, 8: 0x11B, 16: 0x1002B, 32: 0x1_0000_008D}

@@ -34,7 +34,16 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         add({"merge-controls", "cancel"});
     }
     if (opts.target.empty()) return p;
-    // Lowering to the target gate set: the lowering steps are appended here (lowering/).
+    // Lowering (owned by the lowering branch): pairs and free wires are found on the
+    // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
+    // Clifford+T (nct keeps them), then the target's gates and its own cleanup.
+    p.insert(p.end(), {"pair-uncompute", "plan-ancillas", "lower-controls"});
+    if (opts.target != "nct") p.push_back("lower-toffoli");
+    p.insert(p.end(), {"to-target", "fuse-1q"});
+    if (opts.target != "nct" && opts.target != "clifford+t") p.insert(p.end(), {"resynth-2q", "fuse-1q"});
+    // -O2 on the lowered circuit: rotation merging over parities (phase folding), then the
+    // inverse pairs it exposes. (Merge of main and lowering made on the arith branch.)
+    if (level >= 2 && opts.target != "nct") add({"fold-rotations", "gate-cancel"});
     return p;
 }
 
