@@ -196,8 +196,8 @@ void Elaborator::exec_use(const File& f, const Stmt& s) {
             throw UserError(fmt::format("include cycle: {}", chain), loc);
         }
     if (loaded_.count(canon)) return;  // each file is read once
-    if (use_stack_.size() >= limits_.max_recursion)
-        throw UserError(fmt::format("'use' nested deeper than the limit of {}", limits_.max_recursion), loc);
+    if (use_stack_.size() >= limits_.max_use_depth)
+        throw UserError(fmt::format("'use' nested deeper than the limit of {}", limits_.max_use_depth), loc);
     std::string text = read_file(found, limits_.max_file_bytes, loc);
     uint32_t id = sm_.add(found.string(), std::move(text));
     loaded_[canon] = id;
