@@ -42,6 +42,9 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     if (opts.target != "nct") add({"lower-toffoli"});
     add({"to-target", "fuse-1q"});
     if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
+    // -O2 on the lowered circuit: rotation merging over parities (phase folding), then the
+    // inverse pairs it exposes.
+    if (level >= 2 && opts.target != "nct") add({"fold-rotations", "gate-cancel"});
     return p;
 }
 
