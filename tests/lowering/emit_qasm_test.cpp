@@ -274,14 +274,19 @@ TEST_CASE("measurement, reset, barrier and conditions") {
     bar.kind = OpKind::Barrier;
     bar.controls = {Lit::pos(0), Lit::pos(3)};
     c.ops.push_back(bar);
+    Op cond_bar = bar;
+    cond_bar.cond_reg = 0;
+    cond_bar.cond_value = 1;
+    c.ops.push_back(cond_bar);
     std::string t2 = lowering::emit_qasm2(c);
+    CHECK(count(t2, "barrier a[0],b[0];\n") == 2);  // a conditioned barrier is written plainly
     CHECK(contains(t2, "creg m[1];\ncreg out[2];\n"));
     CHECK(contains(t2, "measure flag[0] -> m[0];\n"));
     CHECK(contains(t2, "if(m==1) x a[0];\n"));
     CHECK(contains(t2, "if(out==2) x a[0];\nif(out==2) cu1(pi) a[0],a[1];\nif(out==2) x a[0];\n"));
     CHECK(contains(t2, "measure b[1] -> out[1];\nreset b[1];\nbarrier a[0],b[0];\n"));
     ir::Circuit back = reimport(t2);
-    REQUIRE(back.ops.size() == 8);
+    REQUIRE(back.ops.size() == 9);
     CHECK(back.ops[1].cond_reg == 0);
     CHECK(back.ops[1].cond_value == 1);
     CHECK(back.ops[3].cond_value == 2);
