@@ -26,12 +26,14 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     }
     if (level >= 2) {
         // merge-controls after cancel: cancellation can leave op(C&x), op(C&!x) side by side.
-        // A second cancel picks up what the merges exposed (a merged op can meet its inverse).
-        add({"merge-controls", "cancel"});
+        // fold-phases next, on the fewest and largest ops (a merged control is one term, not two);
+        // it runs before lowering, while AND terms are still visible as products. The last cancel
+        // picks up inverse pairs the merges and folds exposed.
+        add({"merge-controls", "fold-phases", "cancel"});
     }
     if (level >= 3) {
-        // -O3 repeats the merge/cancel round: merges expose cancellations and vice versa.
-        add({"merge-controls", "cancel"});
+        // -O3 repeats the round: merges expose cancellations and foldings, and vice versa.
+        add({"merge-controls", "fold-phases", "cancel"});
     }
     if (opts.target.empty()) return p;
     // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
@@ -42,9 +44,14 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     if (opts.target != "nct") add({"lower-toffoli"});
     add({"to-target", "fuse-1q"});
     if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
-    // -O2 on the lowered circuit: rotation merging over parities (phase folding), then the
-    // inverse pairs it exposes.
-    if (level >= 2 && opts.target != "nct") add({"fold-rotations", "gate-cancel"});
+    if (level >= 1 && opts.target != "nct") {
+        // Low level. gate-cancel first removes the H pairs between Toffolis on one target (the
+        // 7-T forms end and start with H on it), so fold-rotations sees one path variable where
+        // there were two; it then merges rotations on equal parities (the control-only terms of
+        // a Toffoli and of its uncompute). A last gate-cancel removes the pairs the merges left.
+        add({"gate-cancel", "fold-rotations", "gate-cancel"});
+    }
+    if (level >= 3 && opts.target != "nct") add({"fold-rotations", "gate-cancel"});
     return p;
 }
 
