@@ -245,7 +245,7 @@ std::string draw_svg(const std::vector<DrawPanel>& panels, const DrawOptions& op
             uint32_t c1 = std::min(L.columns, c0 + step);
             if (c0) {
                 y += kRowGap / 2;
-                svg.text(kMargin, y, fmt::format("columns {}–{}", c0 + 1, c1), 10, "#94a3b8", "start", "normal", "italic");
+                svg.text(kMargin, y, c1 == c0 + 1 ? fmt::format("column {}", c1) : fmt::format("columns {}–{}", c0 + 1, c1), 10, "#94a3b8", "start", "normal", "italic");
             }
             y += draw_row(svg, L, c0, c1, y, width);
         }

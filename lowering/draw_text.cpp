@@ -167,7 +167,8 @@ std::string draw_text(const std::vector<DrawPanel>& panels, const DrawOptions& o
         }
         for (uint32_t c0 = 0; c0 < L.columns; c0 += step) {
             uint32_t c1 = std::min(L.columns, c0 + step);
-            if (c0) out += fmt::format("{}{} columns {}-{}\n", S.dash, S.dash, c0 + 1, c1);
+            if (c0 && c1 == c0 + 1) out += fmt::format("{}{} column {}\n", S.dash, S.dash, c1);
+            else if (c0) out += fmt::format("{}{} columns {}-{}\n", S.dash, S.dash, c0 + 1, c1);
             draw_row(L, c0, c1, S, out);
         }
     }
