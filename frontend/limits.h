@@ -11,6 +11,7 @@ struct Limits {
     uint32_t max_qubits = 1'000'000;         ///< wires in one circuit
     uint64_t max_ops = 50'000'000;           ///< ops after elaboration
     uint32_t max_expr_depth = 10'000;        ///< nesting of one expression
+    uint32_t max_block_depth = 1'000;        ///< nesting of `{ }` blocks
     uint32_t max_expansion_terms = 65'536;   ///< terms of one Boolean expression's exact expansion
     uint64_t max_file_bytes = 512ull << 20;  ///< size of one source file
 };

@@ -13,8 +13,28 @@ namespace whittle::passes {
 
 std::vector<std::string> pipeline_for(const PassOptions& opts) {
     std::vector<std::string> p;
-    // -O0 runs nothing at high level; lowering (when a target is given) always runs.
-    (void)opts;
+    auto add = [&](std::initializer_list<const char*> names) {
+        for (const char* n : names) p.emplace_back(n);
+    };
+    const int level = opts.level;
+    // -O0: no optimization; only the lowering (below) runs when a target is given.
+    if (level >= 1) {
+        // normalize first: every later pass compares ops structurally and expects phases as
+        // Phase ops with sorted literals. cancel then removes the cheap inverse pairs (nested
+        // compute/uncompute halves first) so later passes see less.
+        add({"normalize", "cancel"});
+    }
+    if (level >= 2) {
+        // merge-controls after cancel: cancellation can leave op(C&x), op(C&!x) side by side.
+        // A second cancel picks up what the merges exposed (a merged op can meet its inverse).
+        add({"merge-controls", "cancel"});
+    }
+    if (level >= 3) {
+        // -O3 repeats the merge/cancel round: merges expose cancellations and vice versa.
+        add({"merge-controls", "cancel"});
+    }
+    if (opts.target.empty()) return p;
+    // Lowering to the target gate set: the lowering steps are appended here (lowering/).
     return p;
 }
 

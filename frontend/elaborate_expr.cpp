@@ -1,0 +1,290 @@
+// Elaboration of names and expressions: numbers and angles, wires, Boolean expressions over wires.
+#include <cmath>
+#include <numeric>
+
+#include <fmt/format.h>
+
+#include "frontend/elaborator.h"
+
+namespace whittle::frontend {
+namespace {
+
+constexpr double kPi = 3.14159265358979323846;
+
+bool reduce(int64_t& num, int64_t& den) {
+    if (den == 0) return false;
+    if (den < 0) {
+        if (num == INT64_MIN || den == INT64_MIN) return false;
+        num = -num;
+        den = -den;
+    }
+    int64_t g = std::gcd(num < 0 ? -num : num, den);
+    if (g > 1) {
+        num /= g;
+        den /= g;
+    }
+    return true;
+}
+
+}  // namespace
+
+double Number::to_double() const {
+    switch (kind) {
+    case Rat: return double(num) / double(den);
+    case PiRat: return double(num) / double(den) * kPi;
+    case Real: return real;
+    }
+    return 0.0;
+}
+
+void Elaborator::fail(const File& f, const Expr& e, const std::string& msg) const {
+    throw UserError(msg, f.loc_of(e));
+}
+
+const Binding* Elaborator::lookup(uint32_t sym) const {
+    for (size_t i = locals_.size(); i > frame_base_; --i)
+        if (locals_[i - 1].first == sym) return &locals_[i - 1].second;
+    if (sym < globals_.size() && globals_[sym].kind != Binding::None) return &globals_[sym];
+    return nullptr;
+}
+
+void Elaborator::bind(uint32_t sym, const Binding& b, ir::SourceLoc loc) {
+    if (scope_depth_ == 0) {
+        if (globals_.size() <= sym) globals_.resize(symbols_.size());
+        if (globals_[sym].kind != Binding::None)
+            throw UserError(fmt::format("'{}' is already defined", name(sym)), loc);
+        if (routines_.count(sym)) throw UserError(fmt::format("'{}' is already defined as a routine", name(sym)), loc);
+        globals_[sym] = b;
+        return;
+    }
+    locals_.emplace_back(sym, b);
+}
+
+Number Elaborator::eval_number(const File& f, uint32_t ei) const {
+    const Expr& e = f.exprs[ei];
+    auto bad_op = [&](const char* op) -> Number {
+        fail(f, e, fmt::format("'{}' applies to wires in a Boolean expression, not to numbers", op));
+    };
+    switch (e.kind) {
+    case ExprKind::Int: return Number{Number::Rat, e.ival, 1, 0.0};
+    case ExprKind::Real: return Number{Number::Real, 0, 1, e.dval};
+    case ExprKind::Pi: return Number{Number::PiRat, 1, 1, 0.0};
+    case ExprKind::Name: {
+        const Binding* b = lookup(e.sym);
+        if (!b) fail(f, e, fmt::format("unknown name '{}'", name(e.sym)));
+        if (b->kind == Binding::Num) return b->num;
+        fail(f, e, fmt::format("expected a number, but '{}' is a {}", name(e.sym),
+                               b->kind == Binding::Bits ? "classical bit" : "wire or register"));
+    }
+    case ExprKind::Index: fail(f, e, fmt::format("expected a number, but '{}[...]' is a wire", name(e.sym)));
+    case ExprKind::Call: {
+        if (name(e.sym) != "size") fail(f, e, fmt::format("unknown function '{}' (the built-in function is size(register))", name(e.sym)));
+        const Expr& arg = f.exprs[e.lhs];
+        const Binding* b = arg.kind == ExprKind::Name ? lookup(arg.sym) : nullptr;
+        if (!b || (b->kind != Binding::Register && b->kind != Binding::Wire && b->kind != Binding::Bits))
+            fail(f, arg, "expected a register name inside size(...)");
+        return Number{Number::Rat, b->kind == Binding::Wire ? 1 : int64_t(b->size), 1, 0.0};
+    }
+    case ExprKind::Neg: {
+        Number a = eval_number(f, e.lhs);
+        if (a.kind == Number::Real) a.real = -a.real;
+        else if (a.num == INT64_MIN) fail(f, e, "integer overflow in the expression");
+        else a.num = -a.num;
+        return a;
+    }
+    case ExprKind::Not: return bad_op("!");
+    case ExprKind::And: return bad_op("&");
+    case ExprKind::Xor: return bad_op("^");
+    case ExprKind::Or: return bad_op("|");
+    case ExprKind::Add:
+    case ExprKind::Sub:
+    case ExprKind::Mul:
+    case ExprKind::Div:
+    case ExprKind::Mod: break;
+    }
+    Number a = eval_number(f, e.lhs);
+    Number b = eval_number(f, e.rhs);
+    auto real = [&](double v) { return Number{Number::Real, 0, 1, v}; };
+    auto exact = [&](Number::Kind k, __int128 n, __int128 d) -> Number {
+        if (d < 0) {
+            n = -n;
+            d = -d;
+        }
+        __int128 g = 1;
+        {
+            __int128 x = n < 0 ? -n : n, y = d;
+            while (y != 0) {
+                __int128 t = x % y;
+                x = y;
+                y = t;
+            }
+            g = x == 0 ? 1 : x;
+        }
+        n /= g;
+        d /= g;
+        if (n > INT64_MAX || n < -INT64_MAX || d > INT64_MAX) {
+            if (k == Number::Rat && e.kind != ExprKind::Div) fail(f, e, "integer overflow in the expression");
+            return real(double(n) / double(d) * (k == Number::PiRat ? kPi : 1.0));
+        }
+        Number r{k, int64_t(n), int64_t(d), 0.0};
+        reduce(r.num, r.den);
+        return r;
+    };
+    if (e.kind == ExprKind::Mod) {
+        if (a.kind != Number::Rat || b.kind != Number::Rat || a.den != 1 || b.den != 1)
+            fail(f, e, "'%' needs two integers");
+        if (b.num == 0) fail(f, e, "remainder by zero");
+        if (b.num == -1) return Number{Number::Rat, 0, 1, 0.0};
+        int64_t m = a.num % b.num;
+        if (m < 0) m += b.num < 0 ? -b.num : b.num;  // floor-style: the result has the divisor's size range
+        return Number{Number::Rat, m, 1, 0.0};
+    }
+    const bool exact_operands = a.kind != Number::Real && b.kind != Number::Real;
+    switch (e.kind) {
+    case ExprKind::Add:
+    case ExprKind::Sub: {
+        __int128 bn = e.kind == ExprKind::Sub ? -__int128(b.num) : __int128(b.num);
+        if (exact_operands && a.kind == b.kind)
+            return exact(a.kind, __int128(a.num) * b.den + bn * a.den, __int128(a.den) * b.den);
+        double bv = b.to_double();
+        return real(e.kind == ExprKind::Sub ? a.to_double() - bv : a.to_double() + bv);
+    }
+    case ExprKind::Mul:
+        if (exact_operands && (a.kind == Number::Rat || b.kind == Number::Rat))
+            return exact(a.kind == Number::Rat ? b.kind : a.kind, __int128(a.num) * b.num, __int128(a.den) * b.den);
+        return real(a.to_double() * b.to_double());
+    case ExprKind::Div:
+        if (b.kind != Number::Real ? b.num == 0 : b.real == 0.0) fail(f, e, "division by zero");
+        if (exact_operands && b.kind == Number::Rat)
+            return exact(a.kind, __int128(a.num) * b.den, __int128(a.den) * b.num);
+        if (exact_operands && a.kind == Number::PiRat && b.kind == Number::PiRat)
+            return exact(Number::Rat, __int128(a.num) * b.den, __int128(a.den) * b.num);
+        return real(a.to_double() / b.to_double());
+    default: break;
+    }
+    fail(f, e, "not a number");
+}
+
+int64_t Elaborator::eval_int(const File& f, uint32_t e, const char* what) const {
+    Number n = eval_number(f, e);
+    if (n.kind == Number::Rat && n.den == 1) return n.num;
+    if (n.kind == Number::Rat) fail(f, f.exprs[e], fmt::format("{} must be an integer, found {}/{}", what, n.num, n.den));
+    fail(f, f.exprs[e], fmt::format("{} must be an integer, found an angle", what));
+}
+
+ir::Angle Elaborator::eval_angle(const File& f, uint32_t e) const {
+    Number n = eval_number(f, e);
+    switch (n.kind) {
+    case Number::PiRat: return ir::Angle::pi_times(n.num, n.den);
+    case Number::Rat:
+        if (n.num == 0) return ir::Angle();
+        return ir::Angle::radians(n.to_double());
+    case Number::Real:
+        if (!std::isfinite(n.real)) fail(f, f.exprs[e], "the angle is not a finite number");
+        return ir::Angle::radians(n.real);
+    }
+    return {};
+}
+
+uint32_t Elaborator::resolve_wire(const File& f, uint32_t ei) const {
+    const Expr& e = f.exprs[ei];
+    if (e.kind != ExprKind::Name && e.kind != ExprKind::Index)
+        fail(f, e, "expected a wire (a name or name[index])");
+    const Binding* b = lookup(e.sym);
+    if (!b) fail(f, e, fmt::format("unknown wire '{}'", name(e.sym)));
+    if (b->kind == Binding::Num) fail(f, e, fmt::format("expected a wire, but '{}' is a number", name(e.sym)));
+    if (b->kind == Binding::Bits)
+        fail(f, e, fmt::format("expected a wire, but '{}' is a classical bit (use it in 'if')", name(e.sym)));
+    const bool single = b->kind == Binding::Wire || b->scalar;
+    if (e.kind == ExprKind::Name) {
+        if (single) return b->first;
+        fail(f, e, fmt::format("'{}' is a register of {} wires: pick one with {}[i]", name(e.sym), b->size, name(e.sym)));
+    }
+    if (single) fail(f, e, fmt::format("'{}' is a single wire and takes no index", name(e.sym)));
+    int64_t i = eval_int(f, e.lhs, "an index");
+    if (i < 0 || i >= int64_t(b->size))
+        fail(f, f.exprs[e.lhs], fmt::format("index {} is out of range for '{}' (wires 0..{})", i, name(e.sym), b->size - 1));
+    return b->first + uint32_t(i);
+}
+
+void Elaborator::resolve_wires(const File& f, uint32_t ei, std::vector<uint32_t>& out) const {
+    const Expr& e = f.exprs[ei];
+    if (e.kind == ExprKind::Name) {
+        const Binding* b = lookup(e.sym);
+        if (b && b->kind == Binding::Register && !b->scalar) {
+            for (uint32_t i = 0; i < b->size; ++i) out.push_back(b->first + i);
+            return;
+        }
+    }
+    out.push_back(resolve_wire(f, ei));
+}
+
+uint32_t Elaborator::build_bool_node(const File& f, uint32_t ei, BoolExpr& out) const {
+    const Expr& e = f.exprs[ei];
+    ir::SourceLoc loc = f.loc_of(e);
+    switch (e.kind) {
+    case ExprKind::Int:
+        if (e.ival != 0 && e.ival != 1) fail(f, e, "only 0 and 1 are Boolean constants");
+        return out.constant(e.ival == 1, loc);
+    case ExprKind::Name: {
+        const Binding* b = lookup(e.sym);
+        if (b && b->kind == Binding::Num) {
+            if (b->num.kind == Number::Rat && b->num.den == 1 && (b->num.num == 0 || b->num.num == 1))
+                return out.constant(b->num.num == 1, loc);
+            fail(f, e, fmt::format("expected a wire or 0/1, but '{}' is a number", name(e.sym)));
+        }
+        return out.var(resolve_wire(f, ei), loc);
+    }
+    case ExprKind::Index: return out.var(resolve_wire(f, ei), loc);
+    case ExprKind::Not: {
+        uint32_t a = build_bool_node(f, e.lhs, out);
+        return out.op(BoolNode::Not, a, 0, loc);
+    }
+    case ExprKind::And:
+    case ExprKind::Xor:
+    case ExprKind::Or: {
+        uint32_t a = build_bool_node(f, e.lhs, out);
+        uint32_t b = build_bool_node(f, e.rhs, out);
+        auto k = e.kind == ExprKind::And ? BoolNode::And : e.kind == ExprKind::Xor ? BoolNode::Xor : BoolNode::Or;
+        return out.op(k, a, b, loc);
+    }
+    case ExprKind::Neg:
+    case ExprKind::Add:
+    case ExprKind::Sub:
+    case ExprKind::Mul:
+    case ExprKind::Div:
+    case ExprKind::Mod:
+        fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1), found arithmetic");
+    case ExprKind::Real:
+    case ExprKind::Pi:
+    case ExprKind::Call: break;
+    }
+    fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1)");
+}
+
+void Elaborator::build_bool(const File& f, uint32_t e, BoolExpr& out, bool with_controls) const {
+    out.clear();
+    uint32_t root = build_bool_node(f, e, out);
+    if (with_controls && !ctx_.controls.empty()) {
+        ir::SourceLoc loc = out.nodes[root].loc;
+        uint32_t conj = kNone;
+        for (ir::Lit l : ctx_.controls) {
+            uint32_t v = out.var(l.wire(), loc);
+            if (!l.positive()) v = out.op(BoolNode::Not, v, 0, loc);
+            conj = conj == kNone ? v : out.op(BoolNode::And, conj, v, loc);
+        }
+        out.op(BoolNode::And, conj, root, loc);
+        return;
+    }
+    out.root = root;
+}
+
+int Elaborator::find_bits(const File& f, uint32_t sym, ir::SourceLoc loc) const {
+    (void)f;
+    const Binding* b = lookup(sym);
+    if (!b) throw UserError(fmt::format("unknown classical bit '{}' (bits come from 'measure ... as {}')", name(sym), name(sym)), loc);
+    if (b->kind != Binding::Bits) throw UserError(fmt::format("'{}' is not a classical bit", name(sym)), loc);
+    return int(b->first);
+}
+
+}  // namespace whittle::frontend

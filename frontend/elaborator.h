@@ -1,0 +1,113 @@
+// The .wq elaborator (internal): runs the syntax tree's statements and appends ops to an ir::Circuit.
+#pragma once
+
+#include <deque>
+#include <memory>
+#include <string>
+#include <unordered_map>
+#include <unordered_set>
+#include <vector>
+
+#include "frontend/ast.h"
+#include "frontend/boolean_expr.h"
+#include "frontend/diagnostics.h"
+#include "frontend/load.h"
+#include "ir/circuit.h"
+
+namespace whittle::frontend {
+
+/// A compile-time number: an exact rational, an exact rational multiple of pi, or radians.
+struct Number {
+    enum Kind : uint8_t { Rat, PiRat, Real };
+    Kind kind = Rat;
+    int64_t num = 0, den = 1;
+    double real = 0.0;
+    double to_double() const;
+};
+
+/// What a name stands for in a scope.
+struct Binding {
+    enum Kind : uint8_t { None, Num, Wire, Register, Bits };
+    Kind kind = None;
+    Number num;
+    uint32_t first = 0, size = 0;  ///< Wire: first; Register: first wire and size; Bits: creg index
+    bool scalar = false;
+};
+
+class Elaborator {
+public:
+    Elaborator(SourceManager& sm, const LoadOptions& opts);
+    /// Elaborates the main file (already in `sm`) and returns the circuit.
+    ir::Circuit run(uint32_t file_id);
+
+private:
+    struct RoutineRef {
+        const File* file;
+        const Routine* routine;
+    };
+    struct Ctx {
+        ir::LitVec controls;          ///< from enclosing `when`s, outermost first
+        int32_t cond_reg = -1;
+        uint64_t cond_value = 0;
+    };
+
+    // statements (elaborate.cpp)
+    const File& load(uint32_t file_id);
+    void exec_file(const File& f);
+    void exec_block(const File& f, uint32_t block, bool new_scope = true);
+    void exec_stmt(const File& f, const Stmt& s);
+    void exec_decl(const File& f, const Stmt& s);
+    void exec_bits(const File& f, const Stmt& s);
+    void exec_gate(const File& f, const Stmt& s);
+    void exec_xor(const File& f, const Stmt& s);
+    void exec_phase(const File& f, const Stmt& s);
+    void exec_when(const File& f, const Stmt& s);
+    void exec_call(const File& f, const Stmt& s);
+    void exec_compute(const File& f, const Stmt& s);
+    void exec_loop(const File& f, const Stmt& s);
+    void exec_use(const File& f, const Stmt& s);
+    void exec_measure(const File& f, const Stmt& s);
+    void exec_if(const File& f, const Stmt& s);
+    void exec_tagged(const File& f, const Stmt& s);
+    void emit(ir::Op op, ir::SourceLoc loc);
+    void invert_tail(size_t start, ir::Angle phase_before);
+    void check_not_controlled(ir::SourceLoc loc, const char* what) const;
+    void check_target_free(uint32_t wire, ir::SourceLoc loc) const;
+
+    // names and expressions (elaborate_expr.cpp)
+    const Binding* lookup(uint32_t sym) const;
+    void bind(uint32_t sym, const Binding& b, ir::SourceLoc loc);
+    Number eval_number(const File& f, uint32_t e) const;
+    int64_t eval_int(const File& f, uint32_t e, const char* what) const;
+    ir::Angle eval_angle(const File& f, uint32_t e) const;
+    uint32_t resolve_wire(const File& f, uint32_t e) const;
+    void resolve_wires(const File& f, uint32_t e, std::vector<uint32_t>& out) const;
+    /// Builds `out` from an expression; `with_controls` puts the `when` controls in front (AND).
+    void build_bool(const File& f, uint32_t e, BoolExpr& out, bool with_controls) const;
+    uint32_t build_bool_node(const File& f, uint32_t e, BoolExpr& out) const;
+    int find_bits(const File& f, uint32_t sym, ir::SourceLoc loc) const;
+    [[noreturn]] void fail(const File& f, const Expr& e, const std::string& msg) const;
+    std::string name(uint32_t sym) const { return symbols_.name(sym); }
+
+    SourceManager& sm_;
+    const LoadOptions& opts_;
+    const Limits& limits_;
+    SymbolTable symbols_;
+    ir::Circuit c_;
+    std::deque<File> files_;
+    std::unordered_map<std::string, uint32_t> loaded_;  ///< canonical path -> sm id, for `use` once
+    std::vector<std::string> use_stack_;                ///< canonical paths being elaborated (cycle check)
+    std::vector<Binding> globals_;                      ///< by symbol id
+    std::vector<std::pair<uint32_t, Binding>> locals_;  ///< scopes stack (routine frames, loops, blocks)
+    size_t frame_base_ = 0;                             ///< first local visible in the current routine
+    uint32_t scope_depth_ = 0;                          ///< 0 = the program's top level
+    std::unordered_map<uint32_t, RoutineRef> routines_;
+    std::vector<uint32_t> call_stack_;                  ///< routine symbols being called
+    std::unordered_set<std::string> register_names_;
+    std::unordered_map<uint32_t, uint32_t> fresh_counter_;  ///< per routine symbol
+    Ctx ctx_;
+    uint64_t steps_ = 0;
+    mutable BoolExpr scratch_;
+};
+
+}  // namespace whittle::frontend
