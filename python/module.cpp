@@ -118,7 +118,7 @@ PyCircuit compile(const PyCircuit& in, const std::string& target, int level, boo
     return out;
 }
 
-py::object to_python(const nlohmann::json& j) { return py::module_::import("json").attr("loads")(j.dump()); }
+py::object to_python(const lowering::Json& j) { return py::module_::import("json").attr("loads")(j.dump()); }
 
 py::object count(const PyCircuit& pc) {
     if (!pc.compiled) return to_python(lowering::count_json(pc.circuit, pc.name));
