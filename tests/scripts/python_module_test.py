@@ -8,8 +8,14 @@ import sys
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 from qasm_recount import recount  # noqa: E402
 
+from build_config import cache_value, is_on  # noqa: E402
+
 WHITTLE = os.environ["WHITTLE_BIN"]
 SRC = os.environ["WHITTLE_SOURCE_DIR"]
+if cache_value("WHITTLE_PYTHON") is not None and not is_on("WHITTLE_PYTHON"):
+    print("skipped: this build was configured with WHITTLE_PYTHON=OFF")
+    sys.exit(77)
+# Built by default (pybind11 is a listed dependency): a missing module is a failure, not a skip.
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(WHITTLE)), "python"))
 import whittle  # noqa: E402
 
