@@ -2,6 +2,7 @@
 // syntax errors that say what was expected.
 #include <doctest/doctest.h>
 
+#include <memory>
 #include <random>
 #include <string>
 
