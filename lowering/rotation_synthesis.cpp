@@ -9,6 +9,7 @@
 #include <future>
 #include <map>
 #include <mutex>
+#include <numbers>
 #include <string>
 
 #include "ir/error.h"
@@ -20,10 +21,6 @@ namespace whittle::lowering {
 namespace {
 
 using G = CliffordTGate;
-
-// Pollard-rho iterations spent per candidate before it is given up (the paper skips candidates
-// whose norm is hard to factor; a smaller budget trades a little T-count for speed).
-constexpr long kRhoStepsPerCandidate = 2000;
 
 double round_up(const Real& r) {
     double d = r.convert_to<double>();
@@ -80,13 +77,13 @@ std::vector<CliffordTGate> exact_rz(int eighths) {
 
 std::optional<int> exact_eighths(double theta) {
     if (!std::isfinite(theta)) return std::nullopt;
-    const double q = theta / (M_PI / 4);
+    const double q = theta / (std::numbers::pi / 4);
     const double k = std::round(q);
-    if (std::abs(theta - k * (M_PI / 4)) > 1e-14 * (1 + std::abs(theta))) return std::nullopt;
+    if (std::abs(theta - k * (std::numbers::pi / 4)) > 1e-14 * (1 + std::abs(theta))) return std::nullopt;
     return static_cast<int>(std::fmod(std::fmod(k, 8.0) + 8.0, 8.0));
 }
 
-RzApproximation synthesize_rz(double theta, double epsilon) {
+RzApproximation synthesize_rz(double theta, double epsilon, long rho_steps_per_candidate) {
     if (!(epsilon > 0 && epsilon < 1))
         throw UserError("rotation epsilon must lie strictly between 0 and 1, got " + std::to_string(epsilon));
     if (!std::isfinite(theta)) throw UserError("rotation angle must be a finite number");
@@ -126,10 +123,15 @@ RzApproximation synthesize_rz(double theta, double epsilon) {
             if (closeness < min_closeness) continue;
             cands.push_back({std::move(u), std::move(abs2), std::move(closeness)});
         }
-        std::sort(cands.begin(), cands.end(),
-                  [](const Candidate& a, const Candidate& b) { return a.closeness > b.closeness; });
+        // Within a level, sde(|u|^2) is 2k - 1 when |u|^2 sqrt2^(2k) is divisible by sqrt2, else 2k: try
+        // the smaller T-count first, then the smaller error.
+        std::sort(cands.begin(), cands.end(), [](const Candidate& a, const Candidate& b) {
+            bool da = a.abs2.divisible_by_sqrt2(), db = b.abs2.divisible_by_sqrt2();
+            if (da != db) return da;
+            return a.closeness > b.closeness;
+        });
         for (const Candidate& c : cands) {
-            auto t = solve_norm_equation(two_k - c.abs2, kRhoStepsPerCandidate);
+            auto t = solve_norm_equation(two_k - c.abs2, rho_steps_per_candidate);
             if (!t) continue;
             DOmegaMatrix u;
             u.m[0][0] = c.u;

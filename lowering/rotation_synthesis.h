@@ -31,7 +31,12 @@ std::optional<int> exact_eighths(double theta);
 /// Throws whittle::UserError for epsilon outside (0, 1) or a non-finite theta.
 RzApproximation approximate_rz(double theta, double epsilon);
 
-/// The same without the cache (for benchmarks and tests).
-RzApproximation synthesize_rz(double theta, double epsilon);
+/// Pollard-rho iterations spent on factoring one candidate's norm before moving on to the next
+/// candidate (the paper skips candidates that are hard to factor).
+inline constexpr long kDefaultRhoStepsPerCandidate = 2000;
+
+/// The same without the cache (for benchmarks and tests); `rho_steps_per_candidate` trades time for
+/// the chance of keeping a candidate whose norm is hard to factor (so, rarely, a lower T-count).
+RzApproximation synthesize_rz(double theta, double epsilon, long rho_steps_per_candidate = kDefaultRhoStepsPerCandidate);
 
 }  // namespace whittle::lowering

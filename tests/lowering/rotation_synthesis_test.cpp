@@ -3,6 +3,7 @@
 
 #include <boost/multiprecision/cpp_bin_float.hpp>
 #include <cmath>
+#include <numbers>
 #include <random>
 #include <thread>
 
@@ -98,8 +99,8 @@ void check_angles(double eps, int count, uint64_t seed, double* mean_t = nullptr
         CHECK(d.up_to_phase <= F(r.error_bound) * (1 + F(1e-9)));
         // Approximated angles meet epsilon without any phase; angles within epsilon of a multiple of
         // pi/4 use the exact gate instead, which matches only up to a phase of pi/8.
-        double k = std::round(theta / (M_PI / 4));
-        bool near_exact = 2 * std::abs(std::sin((theta - k * M_PI / 4) / 4)) <= eps;
+        double k = std::round(theta / (std::numbers::pi / 4));
+        bool near_exact = 2 * std::abs(std::sin((theta - k * std::numbers::pi / 4) / 4)) <= eps;
         if (!near_exact) CHECK(d.plain <= F(r.error_bound) * (1 + F(1e-9)));
         CHECK(r.error_bound <= eps);
         CHECK(r.t_count == t_count(r.gates));
@@ -142,7 +143,7 @@ TEST_CASE("random angles at epsilon 1e-15") {
 
 TEST_CASE("multiples of pi/4 are exact, never approximated") {
     for (int k = -9; k <= 17; ++k) {
-        double theta = k * M_PI / 4;
+        double theta = k * std::numbers::pi / 4;
         REQUIRE(exact_eighths(theta).has_value());
         CHECK(*exact_eighths(theta) == ((k % 8) + 8) % 8);
         RzApproximation r = approximate_rz(theta, 1e-10);
@@ -150,11 +151,11 @@ TEST_CASE("multiples of pi/4 are exact, never approximated") {
         CHECK(distance_to_rz(r, theta).up_to_phase < F(1e-15));
     }
     CHECK_FALSE(exact_eighths(0.1).has_value());
-    CHECK_FALSE(exact_eighths(M_PI / 8).has_value());
+    CHECK_FALSE(exact_eighths(std::numbers::pi / 8).has_value());
     // An angle within epsilon of pi/4 may use T itself.
-    RzApproximation near = synthesize_rz(M_PI / 4 + 1e-7, 1e-6);
+    RzApproximation near = synthesize_rz(std::numbers::pi / 4 + 1e-7, 1e-6);
     CHECK(near.t_count == 1);
-    CHECK(distance_to_rz(near, M_PI / 4 + 1e-7).up_to_phase <= F(1e-6));
+    CHECK(distance_to_rz(near, std::numbers::pi / 4 + 1e-7).up_to_phase <= F(1e-6));
 }
 
 TEST_CASE("the cache returns the same circuit, also across threads") {
