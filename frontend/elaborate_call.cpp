@@ -106,7 +106,17 @@ void Elaborator::exec_compute(const File& f, const Stmt& s) {
     uint32_t pair = c_.new_pair_id();
     size_t start = c_.ops.size();
     ir::Angle phase_before = c_.global_phase;
+    // Under `when` (or a classical `if`) only the middle part is controlled: C(A B A^-1) = A C(B) A^-1,
+    // since A^-1 undoes A whatever the control's value.
+    Ctx outer = ctx_;
+    ir::LitVec lifted_before = lifted_controls_;
+    for (ir::Lit l : outer.controls) lifted_controls_.push_back(l);
+    ctx_.controls.clear();
+    ctx_.cond_reg = -1;
+    ctx_.cond_value = 0;
     exec_block(f, s.body);
+    ctx_ = outer;
+    lifted_controls_ = lifted_before;
     size_t end_a = c_.ops.size();
     ir::Angle phase_a = c_.global_phase - phase_before;
     for (size_t i = start; i < end_a; ++i) {
@@ -195,8 +205,8 @@ void Elaborator::exec_use(const File& f, const Stmt& s) {
             throw UserError(fmt::format("include cycle: {}", chain), loc);
         }
     if (loaded_.count(canon)) return;  // each file is read once
-    if (use_stack_.size() >= limits_.max_recursion)
-        throw UserError(fmt::format("'use' nested deeper than the limit of {}", limits_.max_recursion), loc);
+    if (use_stack_.size() >= limits_.max_use_depth)
+        throw UserError(fmt::format("'use' nested deeper than the limit of {}", limits_.max_use_depth), loc);
     std::string text = read_file(found, limits_.max_file_bytes, loc);
     uint32_t id = sm_.add(found.string(), std::move(text));
     loaded_[canon] = id;

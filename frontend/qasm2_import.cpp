@@ -1,5 +1,584 @@
-// Placeholder until the OpenQASM 2.0 importer lands.
+// OpenQASM 2.0 import: a recursive-descent parser that elaborates as it reads (registers, gate
+// definitions expanded inline, register-wide broadcasting, `if`), producing high-level IR ops.
 #include "frontend/qasm2_import.h"
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <unordered_map>
+
+#include <fmt/format.h>
+
+#include "frontend/qasm2/expr.h"
+#include "frontend/qasm2/header_gates.h"
+#include "frontend/qasm2/lexer.h"
+
 namespace whittle::frontend {
-ir::Circuit import_qasm2(SourceManager&, uint32_t, const LoadOptions&) { throw UserError("OpenQASM import is not built yet"); }
+namespace {
+
+using ir::SourceLoc;
+using qasm2::ExprArena;
+using qasm2::HeaderGate;
+using qasm2::Lexer;
+using qasm2::Tok;
+using qasm2::Token;
+using qasm2::Value;
+
+constexpr uint32_t kMaxExprDepth = 500;  // well inside the stack even in sanitizer builds
+
+/// One statement of a gate body: a call with its parameter expressions and formal-qubit indices,
+/// or a barrier over formal qubits.
+struct BodyOp {
+    bool barrier = false;
+    std::string name;
+    SourceLoc loc;
+    std::vector<uint32_t> params;  // expression roots in the gate's arena
+    std::vector<uint32_t> qubits;  // indices into the gate's qubit formals
+};
+
+struct GateDef {
+    std::string name;
+    SourceLoc loc;
+    bool opaque = false;
+    uint32_t num_params = 0;
+    uint32_t num_qubits = 0;
+    ExprArena arena;
+    std::vector<BodyOp> body;
+};
+
+/// A top-level qubit argument: one qubit, or a whole register (index < 0).
+struct QArg {
+    int reg = -1;
+    int64_t index = -1;
+    SourceLoc loc;
+};
+
+/// The callee of a gate statement: a user definition or a header gate.
+struct Callee {
+    const GateDef* user = nullptr;
+    const HeaderGate* header = nullptr;
+    uint32_t num_params() const { return user ? user->num_params : header->num_params; }
+    uint32_t num_qubits() const { return user ? user->num_qubits : header->num_qubits; }
+};
+
+class Importer {
+public:
+    Importer(SourceManager& sm, const LoadOptions& opts) : sm_(sm), opts_(opts) {}
+
+    ir::Circuit run(uint32_t file_id) {
+        parse_file(file_id, true);
+        for (size_t i = 0; i < sm_.size(); ++i) c_.files.push_back(sm_.name(uint32_t(i)));
+        return std::move(c_);
+    }
+
+private:
+    // ---- reading -------------------------------------------------------------------------------
+
+    Token expect(Lexer& lx, Tok kind, const char* context) {
+        Token t = lx.take();
+        if (t.kind != kind)
+            throw UserError(fmt::format("expected {} {} but found {}", qasm2::token_name(kind), context, describe(t)), t.loc);
+        return t;
+    }
+
+    static std::string describe(const Token& t) {
+        if (t.kind == Tok::Ident) return fmt::format("'{}'", t.text);
+        if (t.kind == Tok::Int || t.kind == Tok::Real) return fmt::format("the number {}", t.text);
+        return qasm2::token_name(t.kind);
+    }
+
+    uint64_t parse_uint(const Token& t, const char* what) {
+        if (t.kind != Tok::Int) throw UserError(fmt::format("expected {} but found {}", what, describe(t)), t.loc);
+        uint64_t v = 0;
+        for (char ch : t.text) {
+            if (v > (UINT64_MAX - 9) / 10) throw UserError(fmt::format("integer {} is too large", t.text), t.loc);
+            v = v * 10 + uint64_t(ch - '0');
+        }
+        return v;
+    }
+
+    void parse_file(uint32_t file_id, bool main) {
+        Lexer lx(sm_.text(file_id), file_id);
+        if (lx.peek().kind == Tok::Ident && lx.peek().text == "OPENQASM") {
+            lx.take();
+            Token ver = lx.take();
+            if ((ver.kind != Tok::Real && ver.kind != Tok::Int) || Value::parse_literal(ver.text).to_double() != 2.0)
+                throw UserError(fmt::format("only OpenQASM 2.0 is read here, not version {}", ver.text.empty() ? describe(ver) : ver.text),
+                                ver.loc);
+            expect(lx, Tok::Semi, "after the version");
+        } else if (main) {
+            throw UserError("expected 'OPENQASM 2.0;' at the start of the file", lx.peek().loc);
+        }
+        while (lx.peek().kind != Tok::End) statement(lx, file_id);
+    }
+
+    void statement(Lexer& lx, uint32_t file_id) {
+        const Token& t = lx.peek();
+        if (t.kind != Tok::Ident)
+            throw UserError(fmt::format("expected a statement but found {}", describe(t)), t.loc);
+        const std::string& w = t.text;
+        if (w == "include") return include(lx, file_id);
+        if (w == "qreg" || w == "creg") return declare_register(lx);
+        if (w == "gate" || w == "opaque") return define_gate(lx);
+        if (w == "OPENQASM") throw UserError("'OPENQASM' may appear only once, at the start of the file", t.loc);
+        cond_reg_ = -1;
+        cond_value_ = 0;
+        stmt_loc_ = t.loc;
+        if (w == "if") return conditioned(lx);
+        if (w == "barrier") return barrier(lx);
+        quantum_op(lx);
+    }
+
+    void include(Lexer& lx, uint32_t file_id) {
+        lx.take();
+        Token name = expect(lx, Tok::String, "after 'include'");
+        expect(lx, Tok::Semi, "after the include");
+        if (name.text == "qelib1.inc") {
+            if (qelib1_) return;
+            for (const HeaderGate& g : qasm2::header_gates()) {
+                auto it = gates_.find(g.name);
+                if (!g.builtin && it != gates_.end())
+                    throw UserError(fmt::format("qelib1.inc defines '{}', which is already defined at {}:{}", g.name,
+                                                it->second.loc.line, it->second.loc.column),
+                                    name.loc);
+            }
+            qelib1_ = true;
+            return;
+        }
+        if (include_stack_.size() >= opts_.limits.max_recursion)
+            throw UserError(fmt::format("includes nested deeper than {} levels", opts_.limits.max_recursion), name.loc);
+        namespace fs = std::filesystem;
+        std::vector<fs::path> candidates{fs::path(sm_.name(file_id)).parent_path() / name.text};
+        for (const std::string& d : opts_.include_dirs) candidates.push_back(fs::path(d) / name.text);
+        std::error_code ec;
+        for (const fs::path& p : candidates) {
+            if (!fs::is_regular_file(p, ec)) continue;
+            std::string canon = fs::weakly_canonical(p, ec).string();
+            for (const std::string& open : include_stack_)
+                if (open == canon) throw UserError(fmt::format("'{}' includes itself (an include cycle)", name.text), name.loc);
+            std::ifstream in(p, std::ios::binary);
+            std::ostringstream ss;
+            ss << in.rdbuf();
+            if (ss.str().size() > opts_.limits.max_file_bytes)
+                throw UserError(fmt::format("included file '{}' is over the limit of {} bytes", name.text,
+                                            opts_.limits.max_file_bytes),
+                                name.loc);
+            uint32_t id = sm_.add(p.string(), ss.str());
+            include_stack_.push_back(canon);
+            parse_file(id, false);
+            include_stack_.pop_back();
+            return;
+        }
+        throw UserError(fmt::format("cannot find the included file '{}'", name.text), name.loc);
+    }
+
+    void declare_register(Lexer& lx) {
+        Token kw = lx.take();
+        Token name = expect(lx, Tok::Ident, fmt::format("after '{}'", kw.text).c_str());
+        check_new_name(name);
+        expect(lx, Tok::LBracket, "after the register name");
+        Token size_tok = lx.take();
+        uint64_t size = parse_uint(size_tok, "the register size");
+        expect(lx, Tok::RBracket, "after the register size");
+        expect(lx, Tok::Semi, "after the register declaration");
+        if (size == 0) throw UserError(fmt::format("register '{}' must have at least one element", name.text), size_tok.loc);
+        const uint64_t limit = opts_.limits.max_qubits;
+        if (kw.text == "qreg") {
+            if (size + c_.num_qubits() > limit)
+                throw UserError(fmt::format("the program declares more than {} qubits", limit), size_tok.loc);
+            c_.add_register(name.text, uint32_t(size), ir::Role::Data);
+        } else {
+            if (size + c_.num_cbits > limit)
+                throw UserError(fmt::format("the program declares more than {} classical bits", limit), size_tok.loc);
+            c_.add_creg(name.text, uint32_t(size));
+        }
+    }
+
+    void check_new_name(const Token& name) {
+        if (c_.find_register(name.text) >= 0 || c_.find_creg(name.text) >= 0)
+            throw UserError(fmt::format("register '{}' is already declared", name.text), name.loc);
+    }
+
+    std::vector<std::string> ident_list(Lexer& lx, Tok end, const char* what) {
+        std::vector<std::string> out;
+        if (lx.peek().kind == end) return out;
+        for (;;) {
+            Token id = expect(lx, Tok::Ident, fmt::format("in the {} list", what).c_str());
+            for (const std::string& s : out)
+                if (s == id.text) throw UserError(fmt::format("{} '{}' is listed twice", what, id.text), id.loc);
+            out.push_back(id.text);
+            if (lx.peek().kind != Tok::Comma) return out;
+            lx.take();
+        }
+    }
+
+    void define_gate(Lexer& lx) {
+        Token kw = lx.take();
+        Token name = expect(lx, Tok::Ident, fmt::format("after '{}'", kw.text).c_str());
+        if (name.text == "U" || name.text == "CX")
+            throw UserError(fmt::format("'{}' is a builtin gate and cannot be redefined", name.text), name.loc);
+        if (gates_.count(name.text) || (qelib1_ && qasm2::find_header_gate(name.text)))
+            throw UserError(fmt::format("gate '{}' is already defined", name.text), name.loc);
+        GateDef def;
+        def.name = name.text;
+        def.loc = name.loc;
+        def.opaque = kw.text == "opaque";
+        std::vector<std::string> params;
+        if (lx.peek().kind == Tok::LParen) {
+            lx.take();
+            params = ident_list(lx, Tok::RParen, "parameter");
+            expect(lx, Tok::RParen, "after the gate parameters");
+        }
+        if (lx.peek().kind != Tok::Ident)
+            throw UserError(fmt::format("expected the qubit arguments of gate '{}' but found {}", name.text, describe(lx.peek())),
+                            lx.peek().loc);
+        std::vector<std::string> qubits = ident_list(lx, Tok::LBrace, "qubit argument");
+        for (const std::string& q : qubits)
+            for (const std::string& p : params)
+                if (p == q) throw UserError(fmt::format("'{}' is both a parameter and a qubit of gate '{}'", q, name.text), name.loc);
+        def.num_params = uint32_t(params.size());
+        def.num_qubits = uint32_t(qubits.size());
+        if (def.opaque) {
+            expect(lx, Tok::Semi, "after the opaque gate declaration");
+            std::string key = def.name;
+            gates_.emplace(std::move(key), std::move(def));
+            return;
+        }
+        expect(lx, Tok::LBrace, "to open the gate body");
+        while (lx.peek().kind != Tok::RBrace) {
+            if (lx.peek().kind == Tok::End) throw UserError(fmt::format("gate '{}' is not closed: expected '}}'", name.text), name.loc);
+            def.body.push_back(body_op(lx, def, params, qubits));
+        }
+        lx.take();
+        std::string key = def.name;
+        gates_.emplace(std::move(key), std::move(def));
+    }
+
+    BodyOp body_op(Lexer& lx, GateDef& def, const std::vector<std::string>& params, const std::vector<std::string>& qubits) {
+        Token name = expect(lx, Tok::Ident, "in the gate body");
+        BodyOp op;
+        op.name = name.text;
+        op.loc = name.loc;
+        auto qubit_arg = [&]() {
+            Token q = expect(lx, Tok::Ident, "as a qubit argument");
+            if (lx.peek().kind == Tok::LBracket)
+                throw UserError("qubits inside a gate body are the gate's arguments and take no index", lx.peek().loc);
+            for (size_t i = 0; i < qubits.size(); ++i)
+                if (qubits[i] == q.text) {
+                    for (uint32_t prev : op.qubits)
+                        if (prev == i) throw UserError(fmt::format("qubit '{}' is used twice in one gate", q.text), q.loc);
+                    op.qubits.push_back(uint32_t(i));
+                    return;
+                }
+            throw UserError(fmt::format("'{}' is not a qubit argument of gate '{}'", q.text, def.name), q.loc);
+        };
+        if (name.text == "barrier") {
+            op.barrier = true;
+            for (;;) {
+                qubit_arg();
+                if (lx.peek().kind != Tok::Comma) break;
+                lx.take();
+            }
+            expect(lx, Tok::Semi, "after the barrier");
+            return op;
+        }
+        if (name.text == "measure" || name.text == "reset" || name.text == "if")
+            throw UserError(fmt::format("'{}' is not allowed inside a gate body", name.text), name.loc);
+        Callee callee = find_callee(name);
+        if (lx.peek().kind == Tok::LParen) {
+            lx.take();
+            if (lx.peek().kind != Tok::RParen) {
+                for (;;) {
+                    op.params.push_back(qasm2::parse_expr(lx, def.arena, params, kMaxExprDepth));
+                    if (lx.peek().kind != Tok::Comma) break;
+                    lx.take();
+                }
+            }
+            expect(lx, Tok::RParen, "after the gate parameters");
+        }
+        check_param_count(callee, name, op.params.size());
+        for (;;) {
+            qubit_arg();
+            if (lx.peek().kind != Tok::Comma) break;
+            lx.take();
+        }
+        check_qubit_count(callee, name, op.qubits.size());
+        expect(lx, Tok::Semi, "after the gate call");
+        return op;
+    }
+
+    Callee find_callee(const Token& name) {
+        Callee c;
+        auto it = gates_.find(name.text);
+        if (it != gates_.end()) {
+            c.user = &it->second;
+            return c;
+        }
+        const HeaderGate* h = qasm2::find_header_gate(name.text);
+        if (h && (h->builtin || qelib1_)) {
+            c.header = h;
+            return c;
+        }
+        if (h) throw UserError(fmt::format("unknown gate '{}': it is in the standard header, add include \"qelib1.inc\";", name.text),
+                               name.loc);
+        if (c_.find_register(name.text) >= 0 || c_.find_creg(name.text) >= 0)
+            throw UserError(fmt::format("'{}' is a register, not a gate", name.text), name.loc);
+        throw UserError(fmt::format("unknown gate '{}'", name.text), name.loc);
+    }
+
+    void check_param_count(const Callee& c, const Token& name, size_t n) {
+        if (n != c.num_params())
+            throw UserError(fmt::format("gate '{}' takes {} parameter{} but {} {} given", name.text, c.num_params(),
+                                        c.num_params() == 1 ? "" : "s", n, n == 1 ? "is" : "are"),
+                            name.loc);
+    }
+    void check_qubit_count(const Callee& c, const Token& name, size_t n) {
+        if (n != c.num_qubits())
+            throw UserError(fmt::format("gate '{}' acts on {} qubit{} but {} {} given", name.text, c.num_qubits(),
+                                        c.num_qubits() == 1 ? "" : "s", n, n == 1 ? "is" : "are"),
+                            name.loc);
+    }
+
+    QArg qubit_arg(Lexer& lx) {
+        Token id = expect(lx, Tok::Ident, "as a qubit argument");
+        QArg a;
+        a.loc = id.loc;
+        a.reg = c_.find_register(id.text);
+        if (a.reg < 0) {
+            if (c_.find_creg(id.text) >= 0)
+                throw UserError(fmt::format("'{}' is a classical register; a qubit is expected here", id.text), id.loc);
+            throw UserError(fmt::format("unknown quantum register '{}'", id.text), id.loc);
+        }
+        a.index = index_suffix(lx, id.text, c_.registers[size_t(a.reg)].size);
+        return a;
+    }
+
+    int64_t index_suffix(Lexer& lx, const std::string& reg, uint32_t size) {
+        if (lx.peek().kind != Tok::LBracket) return -1;
+        lx.take();
+        Token idx = lx.take();
+        uint64_t i = parse_uint(idx, "an index");
+        expect(lx, Tok::RBracket, "after the index");
+        if (i >= size)
+            throw UserError(fmt::format("index {} is out of range for register '{}' of size {}", i, reg, size), idx.loc);
+        return int64_t(i);
+    }
+
+    // ---- top-level operations ------------------------------------------------------------------
+
+    void conditioned(Lexer& lx) {
+        lx.take();
+        expect(lx, Tok::LParen, "after 'if'");
+        Token reg = expect(lx, Tok::Ident, "as the register of the condition");
+        int r = c_.find_creg(reg.text);
+        if (r < 0) {
+            if (c_.find_register(reg.text) >= 0)
+                throw UserError(fmt::format("'{}' is a quantum register; a condition needs a classical register", reg.text), reg.loc);
+            throw UserError(fmt::format("unknown classical register '{}'", reg.text), reg.loc);
+        }
+        expect(lx, Tok::EqEq, "in the condition");
+        Token value = lx.take();
+        uint64_t v = parse_uint(value, "an integer value for the condition");
+        expect(lx, Tok::RParen, "after the condition");
+        const Token& next = lx.peek();
+        if (next.kind == Tok::Ident && (next.text == "if" || next.text == "barrier" || next.text == "gate" ||
+                                        next.text == "qreg" || next.text == "creg" || next.text == "opaque"))
+            throw UserError(fmt::format("'{}' cannot be conditioned: expected a gate, measure or reset", next.text), next.loc);
+        cond_reg_ = r;
+        cond_value_ = v;
+        quantum_op(lx);
+    }
+
+    void barrier(Lexer& lx) {
+        lx.take();
+        ir::Op op;
+        op.kind = ir::OpKind::Barrier;
+        std::vector<bool> seen(c_.num_qubits(), false);
+        for (;;) {
+            QArg a = qubit_arg(lx);
+            const ir::Register& r = c_.registers[size_t(a.reg)];
+            uint32_t lo = a.index < 0 ? r.first : r.first + uint32_t(a.index);
+            uint32_t hi = a.index < 0 ? r.first + r.size : lo + 1;
+            for (uint32_t w = lo; w < hi; ++w)
+                if (!seen[w]) {
+                    seen[w] = true;
+                    op.controls.push_back(ir::Lit::pos(w));
+                }
+            if (lx.peek().kind != Tok::Comma) break;
+            lx.take();
+        }
+        expect(lx, Tok::Semi, "after the barrier");
+        push(std::move(op));
+    }
+
+    void quantum_op(Lexer& lx) {
+        const Token& t = lx.peek();
+        if (t.kind != Tok::Ident) throw UserError(fmt::format("expected a gate, measure or reset but found {}", describe(t)), t.loc);
+        if (t.text == "measure") return measure(lx);
+        if (t.text == "reset") return reset(lx);
+        gate_statement(lx);
+    }
+
+    void measure(Lexer& lx) {
+        lx.take();
+        QArg q = qubit_arg(lx);
+        expect(lx, Tok::Arrow, "after the measured qubit");
+        Token id = expect(lx, Tok::Ident, "as the classical register of the measurement");
+        int creg = c_.find_creg(id.text);
+        if (creg < 0) {
+            if (c_.find_register(id.text) >= 0)
+                throw UserError(fmt::format("'{}' is a quantum register; a measurement writes a classical register", id.text),
+                                id.loc);
+            throw UserError(fmt::format("unknown classical register '{}'", id.text), id.loc);
+        }
+        const ir::ClassicalRegister& cr = c_.cregs[size_t(creg)];
+        int64_t bit = index_suffix(lx, id.text, cr.size);
+        expect(lx, Tok::Semi, "after the measurement");
+        const ir::Register& qr = c_.registers[size_t(q.reg)];
+        if ((q.index < 0) != (bit < 0))
+            throw UserError("measure a whole register into a whole register, or one qubit into one bit", id.loc);
+        if (q.index >= 0) {
+            push(ir::Op::measure(qr.first + uint32_t(q.index), int32_t(cr.first + uint32_t(bit))));
+            return;
+        }
+        if (qr.size != cr.size)
+            throw UserError(fmt::format("register '{}' has {} qubits but '{}' has {} bits", qr.name, qr.size, cr.name, cr.size),
+                            id.loc);
+        for (uint32_t i = 0; i < qr.size; ++i) push(ir::Op::measure(qr.first + i, int32_t(cr.first + i)));
+    }
+
+    void reset(Lexer& lx) {
+        lx.take();
+        QArg q = qubit_arg(lx);
+        expect(lx, Tok::Semi, "after reset");
+        const ir::Register& r = c_.registers[size_t(q.reg)];
+        if (q.index >= 0) return push(ir::Op::reset(r.first + uint32_t(q.index)));
+        for (uint32_t i = 0; i < r.size; ++i) push(ir::Op::reset(r.first + i));
+    }
+
+    void gate_statement(Lexer& lx) {
+        Token name = lx.take();
+        Callee callee = find_callee(name);
+        std::vector<Value> params;
+        if (lx.peek().kind == Tok::LParen) {
+            lx.take();
+            if (lx.peek().kind != Tok::RParen) {
+                static const std::vector<std::string> no_params;
+                for (;;) {
+                    scratch_.nodes.clear();
+                    uint32_t root = qasm2::parse_expr(lx, scratch_, no_params, kMaxExprDepth);
+                    params.push_back(qasm2::eval_expr(scratch_, root, {}));
+                    if (lx.peek().kind != Tok::Comma) break;
+                    lx.take();
+                }
+            }
+            expect(lx, Tok::RParen, "after the gate parameters");
+        }
+        check_param_count(callee, name, params.size());
+        std::vector<QArg> args;
+        if (lx.peek().kind != Tok::Ident)
+            throw UserError(fmt::format("expected the qubits of gate '{}' but found {}", name.text, describe(lx.peek())), lx.peek().loc);
+        for (;;) {
+            args.push_back(qubit_arg(lx));
+            if (lx.peek().kind != Tok::Comma) break;
+            lx.take();
+        }
+        check_qubit_count(callee, name, args.size());
+        expect(lx, Tok::Semi, "after the gate");
+
+        // Broadcasting: whole registers of one size n give n calls; single qubits repeat.
+        uint32_t n = 1;
+        const QArg* first_whole = nullptr;
+        for (const QArg& a : args) {
+            if (a.index >= 0) continue;
+            uint32_t size = c_.registers[size_t(a.reg)].size;
+            if (first_whole && size != n)
+                throw UserError(fmt::format("registers '{}' (size {}) and '{}' (size {}) in one gate must have the same size",
+                                            c_.registers[size_t(first_whole->reg)].name, n, c_.registers[size_t(a.reg)].name, size),
+                                a.loc);
+            if (!first_whole) first_whole = &a;
+            n = size;
+        }
+        std::vector<uint32_t> wires(args.size());
+        for (uint32_t k = 0; k < n; ++k) {
+            for (size_t i = 0; i < args.size(); ++i) {
+                const ir::Register& r = c_.registers[size_t(args[i].reg)];
+                wires[i] = r.first + (args[i].index >= 0 ? uint32_t(args[i].index) : k);
+                for (size_t j = 0; j < i; ++j)
+                    if (wires[j] == wires[i])
+                        throw UserError(fmt::format("qubit {} is used twice in one gate", c_.wire_name(wires[i])), args[i].loc);
+            }
+            call(callee, name.loc, params, wires, 0);
+        }
+    }
+
+    // ---- expansion ------------------------------------------------------------------------------
+
+    void call(const Callee& callee, const SourceLoc& loc, const std::vector<Value>& params,
+              const std::vector<uint32_t>& wires, uint32_t depth) {
+        if (callee.header) {
+            tmp_.clear();
+            ir::Angle gp = qasm2::append_header_gate(*callee.header, params, wires.data(), tmp_);
+            if (cond_reg_ < 0) c_.global_phase += gp;  // a phase under a classical condition is unobservable
+            for (ir::Op& op : tmp_) push(std::move(op));
+            return;
+        }
+        const GateDef& def = *callee.user;
+        if (def.opaque)
+            throw UserError(fmt::format("gate '{}' is opaque: it has no definition to compile", def.name), loc);
+        if (depth >= opts_.limits.max_recursion)
+            throw UserError(fmt::format("gate definitions nested deeper than {} levels", opts_.limits.max_recursion), loc);
+        for (const BodyOp& b : def.body) {
+            std::vector<uint32_t> inner(b.qubits.size());
+            for (size_t i = 0; i < b.qubits.size(); ++i) inner[i] = wires[b.qubits[i]];
+            if (b.barrier) {
+                ir::Op op;
+                op.kind = ir::OpKind::Barrier;
+                for (uint32_t w : inner) op.controls.push_back(ir::Lit::pos(w));
+                push(std::move(op));
+                continue;
+            }
+            std::vector<Value> args(b.params.size());
+            for (size_t i = 0; i < b.params.size(); ++i) args[i] = qasm2::eval_expr(def.arena, b.params[i], params);
+            Callee inner_callee;
+            auto it = gates_.find(b.name);
+            if (it != gates_.end()) inner_callee.user = &it->second;
+            else inner_callee.header = qasm2::find_header_gate(b.name);
+            WHITTLE_ASSERT((inner_callee.user || inner_callee.header) && "gate body names were resolved when defined");
+            call(inner_callee, b.loc, args, inner, depth + 1);
+        }
+    }
+
+    void push(ir::Op op) {
+        if (c_.ops.size() >= opts_.limits.max_ops)
+            throw UserError(fmt::format("the program expands to more than {} operations", opts_.limits.max_ops), stmt_loc_);
+        op.loc = stmt_loc_;
+        if (cond_reg_ >= 0) {
+            if (op.kind == ir::OpKind::Barrier) return;  // a barrier under a condition orders nothing extra
+            op.cond_reg = cond_reg_;
+            op.cond_value = cond_value_;
+        }
+        c_.ops.push_back(std::move(op));
+    }
+
+    SourceManager& sm_;
+    const LoadOptions& opts_;
+    ir::Circuit c_;
+    std::unordered_map<std::string, GateDef> gates_;
+    bool qelib1_ = false;
+    std::vector<std::string> include_stack_;
+    ExprArena scratch_;
+    std::vector<ir::Op> tmp_;
+    int cond_reg_ = -1;
+    uint64_t cond_value_ = 0;
+    SourceLoc stmt_loc_;
+};
+
+}  // namespace
+
+ir::Circuit import_qasm2(SourceManager& sm, uint32_t file_id, const LoadOptions& opts) {
+    Importer imp(sm, opts);
+    return imp.run(file_id);
+}
+
 }  // namespace whittle::frontend

@@ -1,19 +1,80 @@
 // `whittle equiv A B`: exit 0 equivalent, 1 not equivalent, 2 error or inconclusive.
+#include <iostream>
 #include <memory>
+
+#include <fmt/format.h>
 
 #include "frontend/cli/commands.h"
 #include "frontend/cli/driver.h"
+#include "frontend/load.h"
+#include "passes/equivalence.h"
 
 namespace whittle::cli {
+namespace {
+
+struct EquivArgs {
+    std::vector<std::string> files;
+    double time_budget = 10;
+    bool exact_only = false;
+    uint64_t seed = 1;
+    int states = 6;
+    bool explain = false;
+    std::vector<std::string> include_dirs;
+};
+
+int run_equiv(const EquivArgs& args) {
+    frontend::SourceManager sm;
+    return guarded(sm, [&]() -> int {
+        frontend::LoadOptions lo;
+        lo.include_dirs = args.include_dirs;
+        const ir::Circuit a = frontend::load_file(args.files[0], sm, lo);
+        const ir::Circuit b = frontend::load_file(args.files[1], sm, lo);
+        passes::EquivOptions opts;
+        opts.time_budget_seconds = args.time_budget;
+        opts.allow_probabilistic = !args.exact_only;
+        opts.seed = args.seed;
+        opts.random_states = args.states;
+        const passes::EquivResult r = passes::check_equivalence(a, b, opts);
+        std::cout << passes::verdict_name(r.verdict) << "\n";
+        std::cout << fmt::format("  engine:         {}\n  confidence:     {}\n", r.engine, r.confidence);
+        if (!r.counterexample.empty()) std::cout << fmt::format("  counterexample: {}\n", r.counterexample);
+        if (args.explain) std::cout << "  engines tried:\n" << [&] {
+            std::string s;
+            size_t start = 0;
+            while (start < r.detail.size()) {
+                size_t end = r.detail.find('\n', start);
+                if (end == std::string::npos) end = r.detail.size();
+                s += "    " + r.detail.substr(start, end - start) + "\n";
+                start = end + 1;
+            }
+            return s;
+        }();
+        switch (r.verdict) {
+        case passes::Verdict::Equivalent: return kOk;
+        case passes::Verdict::NotEquivalent: return kCheckFailed;
+        case passes::Verdict::Inconclusive:
+            std::cerr << fmt::format("error: could not decide whether '{}' and '{}' are equivalent: {}\n", args.files[0],
+                                     args.files[1], r.confidence);
+            return kInputError;
+        }
+        return kInputError;
+    });
+}
+
+}  // namespace
 
 void add_equiv_command(CLI::App& app, int& exit_code) {
-    auto files = std::make_shared<std::vector<std::string>>();
+    auto args = std::make_shared<EquivArgs>();
     CLI::App* cmd = app.add_subcommand("equiv", "check that two programs are equivalent (up to global phase)");
-    cmd->add_option("programs", *files, "the two programs (.wq or .qasm)")->required()->expected(2);
-    cmd->callback([files, &exit_code]() {
-        frontend::SourceManager sm;
-        exit_code = guarded(sm, [&]() -> int { throw UserError("equiv: not built yet"); });
-    });
+    cmd->add_option("programs", args->files, "the two programs (.wq or .qasm)")->required()->expected(2);
+    cmd->add_option("--time-budget", args->time_budget, "seconds each check may take before it gives up")
+        ->capture_default_str();
+    cmd->add_flag("--exact-only", args->exact_only, "treat sampled and random-state answers as inconclusive");
+    cmd->add_option("--seed", args->seed, "seed for random inputs and states")->capture_default_str();
+    cmd->add_option("--states", args->states, "random input states for the simulation fallback")->capture_default_str();
+    cmd->add_flag("--explain", args->explain, "list every engine tried and why it did or did not decide");
+    cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");
+    cmd->callback([args, &exit_code]() { exit_code = run_equiv(*args); });
 }
 
 }  // namespace whittle::cli

@@ -15,6 +15,7 @@ int main(int argc, char** argv) {
     whittle::cli::add_equiv_command(app, exit_code);
     whittle::cli::add_draw_command(app, exit_code);
     whittle::cli::add_demo_command(app, exit_code);
+    whittle::cli::add_matrix_command(app, exit_code);
     try {
         app.parse(argc, argv);
     } catch (const CLI::ParseError& e) {

@@ -1,0 +1,44 @@
+// The equivalence checker: are two circuits the same map up to global phase, with ancilla promises?
+#pragma once
+
+#include <cstdint>
+#include <string>
+
+#include "ir/circuit.h"
+
+namespace whittle::passes {
+
+struct EquivOptions {
+    double time_budget_seconds = 10;  ///< each engine stops and reports inconclusive past this
+    int random_states = 6;            ///< random input states for the simulation fallback
+    uint64_t seed = 1;
+    bool allow_probabilistic = true;  ///< when false, sampling and random-state answers are inconclusive
+};
+
+enum class Verdict { Equivalent, NotEquivalent, Inconclusive };
+
+const char* verdict_name(Verdict v);  // "equivalent", "not equivalent", "inconclusive"
+
+struct EquivResult {
+    Verdict verdict = Verdict::Inconclusive;
+    std::string engine;          ///< the engine that decided ("bit-parallel", "path-sum", ...)
+    std::string confidence;      ///< "exact (...)", "probabilistic (...)" or why it could not decide
+    std::string counterexample;  ///< for NotEquivalent when one is known: "a=3 b=0 (...)"
+    std::string detail;          ///< what the engines tried, one line each
+};
+
+/// Checks that `a` and `b` are equal up to global phase (Circuit::global_phase included).
+///
+/// Wires are matched by register name and index; a wire present on one side only is a clean
+/// ancilla (a `borrow` wire of that side stays dirty). Clean wires (`ancilla`) start at |0> and only
+/// those inputs matter, so both sides must agree there (returning the wire to |0> when the other
+/// side leaves it alone); `borrow` and data wires take every input. With measurement and
+/// feed-forward every branch must give the reference state, up to a phase per branch; clean wires
+/// whose last op is a measurement count as reset afterwards.
+///
+/// Engines, strongest that applies: bit-parallel or ANF for X-type circuits; phase table or phase
+/// polynomial for X-type plus diagonal phases with exact angles; the path sum (Amy 2018,
+/// arXiv:1805.06908) for Clifford+T-like circuits with exact angles; state-vector simulation.
+EquivResult check_equivalence(const ir::Circuit& a, const ir::Circuit& b, const EquivOptions& opts = {});
+
+}  // namespace whittle::passes
