@@ -141,6 +141,12 @@ TEST_CASE("random angles at epsilon 1e-15") {
     check_t_count_band(1e-15, mean);
 }
 
+TEST_CASE("beyond double precision: epsilon 1e-20") {
+    double mean = 0;
+    check_angles(1e-20, 1, 5, &mean);
+    check_t_count_band(1e-20, mean);
+}
+
 TEST_CASE("multiples of pi/4 are exact, never approximated") {
     for (int k = -9; k <= 17; ++k) {
         double theta = k * std::numbers::pi / 4;
