@@ -162,6 +162,9 @@ Sym normalized(const Real m[2][2]) {
 
 }  // namespace
 
+// The paper picks the operator by a case analysis on (z, zeta, b, beta); here every operator of its
+// list, with the paper's exponents and their neighbours, in all X/Z orientations, is tried and the one
+// that lowers the skew most is kept. Correctness of the enumeration does not depend on the choice.
 GridOperator reduce_skew(const Ellipse& a, const Ellipse& b) {
     WHITTLE_ASSERT(a.m[0][0] > 0 && a.m[0][0] * a.m[1][1] > a.m[0][1] * a.m[0][1] && "ellipse matrix must be positive definite");
     WHITTLE_ASSERT(b.m[0][0] > 0 && b.m[0][0] * b.m[1][1] > b.m[0][1] * b.m[0][1] && "ellipse matrix must be positive definite");

@@ -42,6 +42,16 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     // and KAK resynthesis of two-qubit blocks on the rotation targets).
     add({"pair-uncompute", "plan-ancillas", "lower-controls"});
     if (opts.target != "nct") add({"lower-toffoli"});
+    if (level >= 1) {
+        // Low level, still in H / CNOT / phase form (before to-target turns H into the target's
+        // axes and hides the path variables). gate-cancel first removes the H pairs between
+        // Toffolis on one target (the Clifford+T forms end and start with H on it), so
+        // fold-rotations sees one path variable where there were two; it then merges rotations
+        // on equal parities (the control-only terms of a Toffoli and of its uncompute). A last
+        // gate-cancel removes the pairs the merges left.
+        add({"gate-cancel", "fold-rotations", "gate-cancel"});
+        if (level >= 3) add({"fold-rotations", "gate-cancel"});
+    }
     add({"to-target", "fuse-1q"});
     if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
     if (level >= 1 && opts.target != "nct") {

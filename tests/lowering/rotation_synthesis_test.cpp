@@ -141,6 +141,91 @@ TEST_CASE("random angles at epsilon 1e-15") {
     check_t_count_band(1e-15, mean);
 }
 
+TEST_CASE("beyond double precision: epsilon 1e-20") {
+    double mean = 0;
+    check_angles(1e-20, 1, 5, &mean);
+    check_t_count_band(1e-20, mean);
+}
+
+TEST_CASE("T-count is optimal against brute force over all circuits of T-count <= 11") {
+    // Ross & Selinger 2016 (arXiv:1403.2975), from memory: given the factoring (which always succeeds
+    // at these sizes) the algorithm finds the least T-count among all ancilla-free Clifford+T circuits
+    // U with ||U - Rz(theta)|| <= eps. Brute force: every product (T|e)(HT|SHT)^n C times omega^j
+    // (Matsumoto-Amano forms, arXiv:0806.3834, from memory), in long double, independently of the rings.
+    using C = std::complex<long double>;
+    struct M {
+        C a, b, c, d;
+        M operator*(const M& o) const { return {a * o.a + b * o.c, a * o.b + b * o.d, c * o.a + d * o.c, c * o.b + d * o.d}; }
+    };
+    const long double h = std::sqrt(0.5L);
+    const C w(h, h);
+    const M H{h, h, h, -h}, S{1, 0, 0, C(0, 1)}, T{1, 0, 0, w};
+    // The 24 Cliffords up to phase: words over H and S, deduplicated by |tr(A^dagger B)| = 2.
+    std::vector<M> cliffords{{1, 0, 0, 1}};
+    for (size_t i = 0; i < cliffords.size(); ++i)
+        for (const M& g : {H, S}) {
+            M x = g * cliffords[i];
+            bool seen = false;
+            for (const M& y : cliffords)
+                seen = seen || std::abs(std::abs(std::conj(y.a) * x.a + std::conj(y.c) * x.c + std::conj(y.b) * x.b +
+                                                 std::conj(y.d) * x.d) - 2) < 1e-9L;
+            if (!seen) cliffords.push_back(x);
+        }
+    REQUIRE(cliffords.size() == 24);
+    const int max_t = 11;
+    std::vector<std::vector<M>> by_t(max_t + 1);  // every unitary of T-count t, up to phase
+    std::vector<M> level = cliffords;
+    for (int n = 0; n <= max_t; ++n) {
+        by_t[n].insert(by_t[n].end(), level.begin(), level.end());
+        if (n + 1 <= max_t)
+            for (const M& x : level) by_t[n + 1].push_back(T * x);
+        std::vector<M> next;
+        for (const M& x : level) {
+            next.push_back(H * T * x);
+            next.push_back(S * H * T * x);
+        }
+        level = std::move(next);
+    }
+    auto dist = [](const M& u, const M& r) {
+        M d{u.a - r.a, u.b - r.b, u.c - r.c, u.d - r.d};
+        long double p = std::norm(d.a) + std::norm(d.c), q = std::norm(d.b) + std::norm(d.d);
+        long double off = std::norm(std::conj(d.a) * d.b + std::conj(d.c) * d.d);
+        return std::sqrt((p + q + std::sqrt((p - q) * (p - q) + 4 * off)) / 2);
+    };
+    std::mt19937_64 rng(31);
+    std::uniform_real_distribution<double> angle(0, 2 * std::numbers::pi);
+    int compared = 0;
+    for (double eps : {0.2, 0.12, 0.1}) {
+        for (int i = 0; i < 14; ++i) {
+            double theta = angle(rng);
+            double k = std::round(theta / (std::numbers::pi / 4));
+            if (2 * std::abs(std::sin((theta - k * std::numbers::pi / 4) / 4)) <= eps) continue;  // exact path
+            C z = std::polar(1.0L, -static_cast<long double>(theta) / 2);
+            M rz{z, 0, 0, std::conj(z)};
+            int best = -1;
+            for (int t = 0; t <= max_t && best < 0; ++t)
+                for (const M& u : by_t[t]) {
+                    for (int j = 0; j < 8 && best < 0; ++j) {
+                        C ph = std::polar(1.0L, j * std::numbers::pi_v<long double> / 4);
+                        // |tr(A)| <= 2 ||A|| rules most candidates out cheaply.
+                        if (std::abs(ph * (u.a + u.d) - (rz.a + rz.d)) > 2 * eps) continue;
+                        if (dist({ph * u.a, ph * u.b, ph * u.c, ph * u.d}, rz) <= eps) best = t;
+                    }
+                    if (best >= 0) break;
+                }
+            RzApproximation r = synthesize_rz(theta, eps);
+            INFO("theta = " << theta << ", eps = " << eps);
+            if (best >= 0) {
+                CHECK(r.t_count == best);
+                ++compared;
+            } else {
+                CHECK(r.t_count > max_t);
+            }
+        }
+    }
+    CHECK(compared >= 12);
+}
+
 TEST_CASE("multiples of pi/4 are exact, never approximated") {
     for (int k = -9; k <= 17; ++k) {
         double theta = k * std::numbers::pi / 4;
