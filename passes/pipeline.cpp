@@ -54,14 +54,6 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     }
     add({"to-target", "fuse-1q"});
     if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
-    if (level >= 1 && opts.target != "nct") {
-        // Low level. gate-cancel first removes the H pairs between Toffolis on one target (the
-        // 7-T forms end and start with H on it), so fold-rotations sees one path variable where
-        // there were two; it then merges rotations on equal parities (the control-only terms of
-        // a Toffoli and of its uncompute). A last gate-cancel removes the pairs the merges left.
-        add({"gate-cancel", "fold-rotations", "gate-cancel"});
-    }
-    if (level >= 3 && opts.target != "nct") add({"fold-rotations", "gate-cancel"});
     return p;
 }
 
