@@ -41,7 +41,9 @@ enum class ExprKind : uint8_t {
     Neg,     ///< -lhs
     Not,     ///< !lhs
     Add, Sub, Mul, Div, Mod,
-    And, Xor, Or,
+    And, Xor, Or,  ///< on wires: Boolean; on compile-time integers: bitwise
+    Shl, Shr,      ///< compile-time integers only
+    Eq, Ne, Lt, Le, Gt, Ge,  ///< compile-time comparisons, 0 or 1
 };
 
 struct Expr {
@@ -69,7 +71,7 @@ enum class StmtKind : uint8_t {
     Repeat,    ///< repeat expr { body }
     Use,       ///< use "path"
     Measure,   ///< measure target as bit (bit: Name or Index expression)
-    If,        ///< if [!]sym [== value] { body }
+    If,        ///< if [!]sym [== value] { body } on a classical bit, or if EXPR { body } else { body2 } on a compile-time integer
     Reset,     ///< reset targets
     Barrier,   ///< barrier targets
     Tagged,    ///< @compute(N) / @uncompute(N) statement-or-block (printer's pair tags)

@@ -5,6 +5,7 @@
 #include <fmt/format.h>
 
 #include "frontend/elaborator.h"
+#include "frontend/esop_minimize.h"
 #include "frontend/wq_grammar.h"
 
 namespace whittle::frontend {
@@ -76,7 +77,8 @@ void Elaborator::check_not_controlled(ir::SourceLoc loc, const char* what) const
 }
 
 void Elaborator::check_target_free(uint32_t wire, ir::SourceLoc loc) const {
-    for (Lit l : ctx_.controls)
+    for (const ir::LitVec* controls : {&ctx_.controls, &lifted_controls_})
+      for (Lit l : *controls)
         if (l.wire() == wire)
             throw UserError(fmt::format("'{}' is a control of the enclosing 'when' and cannot also be a target",
                                         c_.wire_name(wire)),
@@ -305,7 +307,7 @@ void Elaborator::exec_xor(const File& f, const Stmt& s) {
         if (!zero) emit_cube(product);
         return;
     }
-    for (const LitVec& cube : esop(e, limits_.max_expansion_terms, loc)) emit_cube(cube);
+    for (const LitVec& cube : minimize_esop(esop(e, limits_.max_expansion_terms, loc))) emit_cube(cube);
 }
 
 void Elaborator::exec_phase(const File& f, const Stmt& s) {
@@ -337,6 +339,18 @@ void Elaborator::exec_phase(const File& f, const Stmt& s) {
             a = -theta;
         }
         if (!wires.empty()) emit(Op::parity(a, wires), loc);
+        return;
+    }
+    if (theta == Angle::pi_times(1)) {
+        // e^{i pi f} = product over the cubes of f's ESOP of e^{i pi cube}: one phase per minimized cube
+        for (const LitVec& cube : minimize_esop(esop(e, limits_.max_expansion_terms, loc))) {
+            LitVec full = ctx_.controls;
+            bool live = true;
+            for (Lit l : cube) live = live && and_literal(full, l);
+            if (!live) continue;
+            if (full.empty()) global(theta);
+            else emit(Op::phase(theta, std::move(full)), loc);
+        }
         return;
     }
     build_bool(f, s.expr, e, true);
@@ -450,6 +464,16 @@ void Elaborator::exec_measure(const File& f, const Stmt& s) {
 
 void Elaborator::exec_if(const File& f, const Stmt& s) {
     ir::SourceLoc loc = f.loc_of(s);
+    const Binding* named = s.sym != kNone ? lookup(s.sym) : nullptr;
+    if (s.sym == kNone || (named && named->kind != Binding::Bits)) {  // a compile-time condition
+        if (eval_int(f, s.expr, "an 'if' condition") != 0)
+            exec_block(f, s.body);
+        else if (s.body2 != kNone)
+            exec_block(f, s.body2);
+        return;
+    }
+    if (s.body2 != kNone)
+        throw UserError("'else' needs a compile-time condition: a classical bit's 'if' has no 'else' branch", loc);
     if (ctx_.cond_reg >= 0) throw UserError("'if' inside 'if' is not supported: an op has one classical condition", loc);
     int reg = find_bits(f, s.sym, f.loc_of(f.exprs[s.expr]));
     const ir::ClassicalRegister& r = c_.cregs[size_t(reg)];

@@ -85,7 +85,16 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
     call_stack_.push_back(r.sym);
     size_t start = c_.ops.size();
     ir::Angle phase_before = c_.global_phase;
-    exec_block(rf, r.body);
+    try {
+        exec_block(rf, r.body);
+    } catch (const UserError& e) {
+        // Name the call site once (the innermost call), so an error inside a routine can be traced.
+        std::string msg = e.what();
+        if (msg.find(" called at line ") != std::string::npos) throw;
+        throw UserError(fmt::format("{} (in routine '{}' called at line {} of {})", msg, name(r.sym), s.line,
+                                    std::filesystem::path(sm_.name(f.file_id)).filename().string()),
+                        e.loc(), e.file_name());
+    }
     call_stack_.pop_back();
     locals_.resize(mark);
     frame_base_ = saved_base;
@@ -97,7 +106,17 @@ void Elaborator::exec_compute(const File& f, const Stmt& s) {
     uint32_t pair = c_.new_pair_id();
     size_t start = c_.ops.size();
     ir::Angle phase_before = c_.global_phase;
+    // Under `when` (or a classical `if`) only the middle part is controlled: C(A B A^-1) = A C(B) A^-1,
+    // since A^-1 undoes A whatever the control's value.
+    Ctx outer = ctx_;
+    ir::LitVec lifted_before = lifted_controls_;
+    for (ir::Lit l : outer.controls) lifted_controls_.push_back(l);
+    ctx_.controls.clear();
+    ctx_.cond_reg = -1;
+    ctx_.cond_value = 0;
     exec_block(f, s.body);
+    ctx_ = outer;
+    lifted_controls_ = lifted_before;
     size_t end_a = c_.ops.size();
     ir::Angle phase_a = c_.global_phase - phase_before;
     for (size_t i = start; i < end_a; ++i) {
@@ -186,8 +205,8 @@ void Elaborator::exec_use(const File& f, const Stmt& s) {
             throw UserError(fmt::format("include cycle: {}", chain), loc);
         }
     if (loaded_.count(canon)) return;  // each file is read once
-    if (use_stack_.size() >= limits_.max_recursion)
-        throw UserError(fmt::format("'use' nested deeper than the limit of {}", limits_.max_recursion), loc);
+    if (use_stack_.size() >= limits_.max_use_depth)
+        throw UserError(fmt::format("'use' nested deeper than the limit of {}", limits_.max_use_depth), loc);
     std::string text = read_file(found, limits_.max_file_bytes, loc);
     uint32_t id = sm_.add(found.string(), std::move(text));
     loaded_[canon] = id;

@@ -92,10 +92,22 @@ Number Elaborator::eval_number(const File& f, uint32_t ei) const {
         else a.num = -a.num;
         return a;
     }
-    case ExprKind::Not: return bad_op("!");
-    case ExprKind::And: return bad_op("&");
-    case ExprKind::Xor: return bad_op("^");
-    case ExprKind::Or: return bad_op("|");
+    case ExprKind::Not: {
+        Number a = eval_number(f, e.lhs);
+        if (a.kind != Number::Rat || a.den != 1) return bad_op("!");
+        return Number{Number::Rat, a.num == 0 ? 1 : 0, 1, 0.0};
+    }
+    case ExprKind::And:
+    case ExprKind::Xor:
+    case ExprKind::Or:
+    case ExprKind::Shl:
+    case ExprKind::Shr:
+    case ExprKind::Eq:
+    case ExprKind::Ne:
+    case ExprKind::Lt:
+    case ExprKind::Le:
+    case ExprKind::Gt:
+    case ExprKind::Ge: return eval_integer_op(f, e);
     case ExprKind::Add:
     case ExprKind::Sub:
     case ExprKind::Mul:
@@ -163,6 +175,57 @@ Number Elaborator::eval_number(const File& f, uint32_t ei) const {
     default: break;
     }
     fail(f, e, "not a number");
+}
+
+Number Elaborator::eval_integer_op(const File& f, const Expr& e) const {
+    Number a = eval_number(f, e.lhs);
+    Number b = eval_number(f, e.rhs);
+    auto integer = [](int64_t v) { return Number{Number::Rat, v, 1, 0.0}; };
+    const bool ints = a.kind == Number::Rat && a.den == 1 && b.kind == Number::Rat && b.den == 1;
+    switch (e.kind) {
+    case ExprKind::Eq:
+    case ExprKind::Ne:
+    case ExprKind::Lt:
+    case ExprKind::Le:
+    case ExprKind::Gt:
+    case ExprKind::Ge: {
+        int cmp = 0;  // sign of a - b
+        if (a.kind != Number::Real && a.kind == b.kind) {
+            __int128 l = __int128(a.num) * b.den, r = __int128(b.num) * a.den;
+            cmp = l < r ? -1 : l > r ? 1 : 0;
+        } else {
+            double l = a.to_double(), r = b.to_double();
+            cmp = l < r ? -1 : l > r ? 1 : 0;
+        }
+        bool v = e.kind == ExprKind::Eq ? cmp == 0 : e.kind == ExprKind::Ne ? cmp != 0 : e.kind == ExprKind::Lt ? cmp < 0
+               : e.kind == ExprKind::Le ? cmp <= 0 : e.kind == ExprKind::Gt ? cmp > 0 : cmp >= 0;
+        return integer(v ? 1 : 0);
+    }
+    default: break;
+    }
+    const char* op = e.kind == ExprKind::And ? "&" : e.kind == ExprKind::Xor ? "^" : e.kind == ExprKind::Or ? "|"
+                   : e.kind == ExprKind::Shl ? "<<" : ">>";
+    if (!ints) {
+        if (e.kind == ExprKind::And || e.kind == ExprKind::Xor || e.kind == ExprKind::Or)
+            fail(f, e, fmt::format("'{}' applies to wires in a Boolean expression, not to numbers", op));
+        fail(f, e, fmt::format("'{}' needs two integers", op));
+    }
+    switch (e.kind) {
+    case ExprKind::And: return integer(a.num & b.num);
+    case ExprKind::Xor: return integer(a.num ^ b.num);
+    case ExprKind::Or: return integer(a.num | b.num);
+    case ExprKind::Shl: {
+        if (b.num < 0) fail(f, e, fmt::format("a shift count cannot be negative, found {}", b.num));
+        __int128 v = b.num >= 64 ? (a.num == 0 ? 0 : __int128(INT64_MAX) + 1) : __int128(a.num) * (__int128(1) << b.num);
+        if (v > INT64_MAX || v < INT64_MIN) fail(f, e, "integer overflow in the expression");
+        return integer(int64_t(v));
+    }
+    case ExprKind::Shr:
+        if (b.num < 0) fail(f, e, fmt::format("a shift count cannot be negative, found {}", b.num));
+        return integer(b.num >= 64 ? (a.num < 0 ? -1 : 0) : a.num >> b.num);  // arithmetic: two's complement bits
+    default: break;
+    }
+    fail(f, e, "not an integer operation");
 }
 
 int64_t Elaborator::eval_int(const File& f, uint32_t e, const char* what) const {
@@ -254,6 +317,14 @@ uint32_t Elaborator::build_bool_node(const File& f, uint32_t ei, BoolExpr& out) 
     case ExprKind::Mul:
     case ExprKind::Div:
     case ExprKind::Mod:
+    case ExprKind::Shl:
+    case ExprKind::Shr:
+    case ExprKind::Eq:
+    case ExprKind::Ne:
+    case ExprKind::Lt:
+    case ExprKind::Le:
+    case ExprKind::Gt:
+    case ExprKind::Ge:
         fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1), found arithmetic");
     case ExprKind::Real:
     case ExprKind::Pi:

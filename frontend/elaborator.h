@@ -78,6 +78,7 @@ private:
     const Binding* lookup(uint32_t sym) const;
     void bind(uint32_t sym, const Binding& b, ir::SourceLoc loc);
     Number eval_number(const File& f, uint32_t e) const;
+    Number eval_integer_op(const File& f, const Expr& e) const;  ///< & ^ | << >> and comparisons
     int64_t eval_int(const File& f, uint32_t e, const char* what) const;
     ir::Angle eval_angle(const File& f, uint32_t e) const;
     uint32_t resolve_wire(const File& f, uint32_t e) const;
@@ -106,6 +107,7 @@ private:
     std::unordered_set<std::string> register_names_;
     std::unordered_map<uint32_t, uint32_t> fresh_counter_;  ///< per routine symbol
     Ctx ctx_;
+    ir::LitVec lifted_controls_;  ///< `when` controls not applied inside a compute block; still not targets
     uint64_t steps_ = 0;
     mutable BoolExpr scratch_;
 };

@@ -159,14 +159,22 @@ private:
 
     static int precedence(Tok k) {
         switch (k) {
-        case Tok::Bar: return 1;
-        case Tok::Caret: return 2;
-        case Tok::Amp: return 3;
+        case Tok::EqEq:
+        case Tok::NotEq:
+        case Tok::Less:
+        case Tok::LessEq:
+        case Tok::Greater:
+        case Tok::GreaterEq: return 1;
+        case Tok::Bar: return 2;
+        case Tok::Caret: return 3;
+        case Tok::Amp: return 4;
+        case Tok::Shl:
+        case Tok::Shr: return 5;
         case Tok::Plus:
-        case Tok::Minus: return 4;
+        case Tok::Minus: return 6;
         case Tok::Star:
         case Tok::Slash:
-        case Tok::Percent: return 5;
+        case Tok::Percent: return 7;
         default: return 0;
         }
     }
@@ -179,12 +187,20 @@ private:
         case Tok::Minus: return ExprKind::Sub;
         case Tok::Star: return ExprKind::Mul;
         case Tok::Slash: return ExprKind::Div;
+        case Tok::Shl: return ExprKind::Shl;
+        case Tok::Shr: return ExprKind::Shr;
+        case Tok::EqEq: return ExprKind::Eq;
+        case Tok::NotEq: return ExprKind::Ne;
+        case Tok::Less: return ExprKind::Lt;
+        case Tok::LessEq: return ExprKind::Le;
+        case Tok::Greater: return ExprKind::Gt;
+        case Tok::GreaterEq: return ExprKind::Ge;
         default: return ExprKind::Mod;
         }
     }
 
     /// Precedence climbing: iterative over operators of one level, recursive only for higher levels
-    /// (at most five deep) and for parentheses / unary operators (guarded).
+    /// (at most seven deep) and for parentheses / unary operators (guarded).
     uint32_t parse_expr(int min_prec = 1) {
         uint32_t lhs = parse_unary();
         for (;;) {
@@ -424,6 +440,7 @@ private:
             return s;
         }
         if (w == "then") fail(t, "'then' without 'compute': expected 'compute { ... } then { ... }'");
+        if (w == "else") fail(t, "'else' without 'if': write it after the '}' of the 'if' block, on the same line");
         return parse_gate_or_call(false);
     }
 
@@ -582,29 +599,40 @@ private:
         return s;
     }
 
+    /// `if m { }`, `if !m { }`, `if m == 5 { }` on classical bits, or `if EXPR { } [else { }]` on a
+    /// compile-time integer (nonzero = true). Which one a name means is decided at elaboration.
     uint32_t parse_if() {
         Token t = cur_;
         advance();
         uint32_t s = new_stmt(StmtKind::If, t);
-        if (is(Tok::Bang)) {
+        uint32_t cond = parse_expr();
+        st(s).expr = cond;
+        const Expr& c = file_.exprs[cond];
+        auto name_of = [&](uint32_t e) { return file_.exprs[e].kind == ExprKind::Name ? file_.exprs[e].sym : kNone; };
+        if (c.kind == ExprKind::Name) {
+            st(s).sym = c.sym;
+        } else if (c.kind == ExprKind::Not && name_of(c.lhs) != kNone) {
+            st(s).sym = name_of(c.lhs);
             st(s).inverse = true;
-            advance();
-        }
-        Token name = cur_;
-        uint32_t sym = expect_ident("a classical bit name after 'if'");
-        st(s).sym = sym;
-        st(s).expr = node(ExprKind::Name, name);
-        file_.exprs[st(s).expr].sym = sym;
-        if (is(Tok::EqEq)) {
-            if (st(s).inverse) fail(cur_, "write either 'if !m' or 'if m == value', not both");
-            advance();
-            if (!is(Tok::Int) || cur_.overflow) expected("an integer value after '=='");
-            st(s).value = cur_.ival;
+        } else if (c.kind == ExprKind::Eq && name_of(c.lhs) != kNone && file_.exprs[c.rhs].kind == ExprKind::Int) {
+            st(s).sym = name_of(c.lhs);
+            st(s).value = uint64_t(file_.exprs[c.rhs].ival);
             st(s).has_value = true;
-            advance();
         }
         uint32_t b = parse_block("if");
         st(s).body = b;
+        if (is_word("else")) {
+            advance();
+            if (is_word("if")) {
+                uint32_t inner = parse_if();
+                uint32_t eb = uint32_t(file_.blocks.size());
+                file_.blocks.emplace_back(1, inner);
+                st(s).body2 = eb;
+            } else {
+                uint32_t eb = parse_block("else");
+                st(s).body2 = eb;
+            }
+        }
         return s;
     }
 

@@ -28,7 +28,9 @@ struct Punctuation : x3::symbols<Tok> {
             ("{", Tok::LBrace)("}", Tok::RBrace)(",", Tok::Comma)("&", Tok::Amp)("^", Tok::Caret)
             ("|", Tok::Bar)("!", Tok::Bang)("~", Tok::Tilde)("+", Tok::Plus)("-", Tok::Minus)
             ("*", Tok::Star)("/", Tok::Slash)("%", Tok::Percent)("^=", Tok::XorEq)("<->", Tok::SwapArrow)
-            ("..", Tok::DotDot)("=", Tok::Assign)("==", Tok::EqEq)("@", Tok::At);
+            ("..", Tok::DotDot)("=", Tok::Assign)("==", Tok::EqEq)("@", Tok::At)
+            ("<<", Tok::Shl)(">>", Tok::Shr)("<", Tok::Less)("<=", Tok::LessEq)(">", Tok::Greater)
+            (">=", Tok::GreaterEq)("!=", Tok::NotEq);
     }
 };
 const Punctuation punctuation;
@@ -67,6 +69,13 @@ const char* tok_name(Tok t) {
     case Tok::Assign: return "'='";
     case Tok::EqEq: return "'=='";
     case Tok::At: return "'@'";
+    case Tok::Shl: return "'<<'";
+    case Tok::Shr: return "'>>'";
+    case Tok::Less: return "'<'";
+    case Tok::LessEq: return "'<='";
+    case Tok::Greater: return "'>'";
+    case Tok::GreaterEq: return "'>='";
+    case Tok::NotEq: return "'!='";
     case Tok::Bad: return "an unexpected character";
     }
     return "?";

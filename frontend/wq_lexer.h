@@ -11,6 +11,7 @@ enum class Tok : uint8_t {
     LParen, RParen, LBracket, RBracket, LBrace, RBrace, Comma,
     Amp, Caret, Bar, Bang, Tilde, Plus, Minus, Star, Slash, Percent,
     XorEq, SwapArrow, DotDot, Assign, EqEq, At,
+    Shl, Shr, Less, LessEq, Greater, GreaterEq, NotEq,  ///< compile-time integer operators
     Bad,  ///< a character that starts no token (text holds it)
 };
 

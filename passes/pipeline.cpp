@@ -13,8 +13,47 @@ namespace whittle::passes {
 
 std::vector<std::string> pipeline_for(const PassOptions& opts) {
     std::vector<std::string> p;
-    // -O0 runs nothing at high level; lowering (when a target is given) always runs.
-    (void)opts;
+    auto add = [&](std::initializer_list<const char*> names) {
+        for (const char* n : names) p.emplace_back(n);
+    };
+    const int level = opts.level;
+    // -O0: no optimization; only the lowering (below) runs when a target is given.
+    if (level >= 1) {
+        // normalize first: every later pass compares ops structurally and expects phases as
+        // Phase ops with sorted literals. cancel then removes the cheap inverse pairs (nested
+        // compute/uncompute halves first) so later passes see less.
+        add({"normalize", "cancel"});
+    }
+    if (level >= 2) {
+        // merge-controls after cancel: cancellation can leave op(C&x), op(C&!x) side by side.
+        // fold-phases next, on the fewest and largest ops (a merged control is one term, not two);
+        // it runs before lowering, while AND terms are still visible as products. The last cancel
+        // picks up inverse pairs the merges and folds exposed.
+        add({"merge-controls", "fold-phases", "cancel"});
+    }
+    if (level >= 3) {
+        // -O3 repeats the round: merges expose cancellations and foldings, and vice versa.
+        add({"merge-controls", "fold-phases", "cancel"});
+    }
+    if (opts.target.empty()) return p;
+    // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
+    // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
+    // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
+    // and KAK resynthesis of two-qubit blocks on the rotation targets).
+    add({"pair-uncompute", "plan-ancillas", "lower-controls"});
+    if (opts.target != "nct") add({"lower-toffoli"});
+    if (level >= 1) {
+        // Low level, still in H / CNOT / phase form (before to-target turns H into the target's
+        // axes and hides the path variables). gate-cancel first removes the H pairs between
+        // Toffolis on one target (the Clifford+T forms end and start with H on it), so
+        // fold-rotations sees one path variable where there were two; it then merges rotations
+        // on equal parities (the control-only terms of a Toffoli and of its uncompute). A last
+        // gate-cancel removes the pairs the merges left.
+        add({"gate-cancel", "fold-rotations", "gate-cancel"});
+        if (level >= 3) add({"fold-rotations", "gate-cancel"});
+    }
+    add({"to-target", "fuse-1q"});
+    if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
     return p;
 }
 

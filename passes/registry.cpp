@@ -1,12 +1,52 @@
 // The pass registry: add a pass by adding its header and one line here.
 #include "passes/registry.h"
 
+#include "passes/cancel.h"
+#include "passes/fold_phases.h"
+#include "passes/fold_rotations.h"
+#include "passes/fuse_1q.h"
+#include "passes/gate_cancel.h"
+#include "passes/lower_controls.h"
+#include "passes/lower_toffoli.h"
+#include "passes/merge_controls.h"
+#include "passes/normalize.h"
+#include "passes/pair_uncompute.h"
+#include "passes/plan_ancillas.h"
+#include "passes/resynth_2q.h"
+#include "passes/to_target.h"
+
 namespace whittle::passes {
 
 const std::vector<PassInfo>& all_passes() {
     static const std::vector<PassInfo> passes = {
-        // High-level passes (on multi-controlled ops and phase polynomials) go here,
-        // then the lowering steps, then the low-level passes.
+        // High-level passes (on multi-controlled ops and phase polynomials).
+        {"normalize", "canonical forms: sorted literals, diagonal gates as phases, zero angles dropped", Stage::HighLevel,
+         normalize},
+        {"cancel", "commutation-aware cancellation of inverse pairs, merging of phases and rotations", Stage::HighLevel,
+         cancel},
+        {"merge-controls", "op under C&x and C&!x -> op under C; the control split that cancels", Stage::HighLevel,
+         merge_controls},
+        {"fold-phases", "phase folding over Boolean polynomials, AND terms expanded where it pays", Stage::HighLevel,
+         fold_phases},
+        {"pair-uncompute", "tag undeclared compute/uncompute pairs of Toffolis and MCX", Stage::HighLevel,
+         pair_uncompute},
+        {"plan-ancillas", "report the clean and borrowable wires free at each multi-controlled op", Stage::HighLevel,
+         plan_ancillas},
+        // Lowering steps.
+        {"lower-controls", "multi-controlled ops to Toffolis by V-chain, Barenco and ancilla-free constructions",
+         Stage::Lowering, lower_controls},
+        {"lower-toffoli", "Toffoli/CCZ to Clifford+T (7-T, T-depth-3, relative-phase, temporary AND)",
+         Stage::Lowering, lower_toffoli},
+        {"to-target", "rewrite into the gates of --target", Stage::Lowering, to_target},
+        // Low-level passes.
+        {"gate-cancel", "CNOT, H and one-qubit inverse pairs across commuting gates (kinds kept)", Stage::LowLevel,
+         gate_cancel},
+        {"fold-rotations", "rotation merging over parities on the lowered circuit, across H with path variables",
+         Stage::LowLevel, fold_rotations},
+        {"fuse-1q", "fuse one-qubit runs and resynthesize them by Euler angles in the target's axes",
+         Stage::LowLevel, fuse_1q},
+        {"resynth-2q", "resynthesize two-qubit blocks by KAK with the fewest entangling gates", Stage::LowLevel,
+         resynth_2q},
     };
     return passes;
 }

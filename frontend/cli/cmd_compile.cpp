@@ -6,10 +6,12 @@
 
 #include "frontend/cli/commands.h"
 #include "frontend/cli/driver.h"
+#include "frontend/cli/progress.h"
 #include "frontend/cli/verify_hook.h"
 #include "frontend/load.h"
 #include "ir/printer.h"
 #include "lowering/emit_qasm.h"
+#include "lowering/report.h"
 #include "passes/pipeline.h"
 
 namespace whittle::cli {
@@ -77,14 +79,21 @@ int run_compile(const CompileArgs& a) {
                     if (d == name || d == "all") std::cerr << "# after " << name << "\n" << ir::print_wq(now);
             };
         }
+        // The input as read, kept for the report's "input_resources" only when a report is asked for.
+        ir::Circuit source;
+        if (!a.report.empty()) source = c;
         if (a.verify) hooks.verify = PassVerifier(verify_folder_for(a.output), passes::EquivOptions{});
+        ProgressLine progress(!a.quiet);
+        hooks.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
         std::vector<passes::PassRecord> records;
         try {
             records = passes::run_passes(c, names, po, hooks);
         } catch (const VerifyFailure& failure) {
+            progress.finish();
             std::cerr << failure.what();
             return kCheckFailed;
         }
+        progress.finish();
         if (a.stats || a.time_passes) {
             for (const passes::PassRecord& r : records) {
                 std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
@@ -102,6 +111,19 @@ int run_compile(const CompileArgs& a) {
         else if (format == "qasm2") text = lowering::emit_qasm2(c);
         else if (format == "qasm3") text = lowering::emit_qasm3(c);
         else throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", format));
+        if (!a.report.empty()) {
+            lowering::CompileReportInput ri;
+            ri.input = a.input;
+            ri.source = &source;
+            ri.output = &c;
+            ri.options = po;
+            ri.explicit_passes = a.passes;
+            ri.emit = format;
+            ri.verify = a.verify;
+            ri.records = std::move(records);
+            refuse_overwriting_input(a.input, a.report);
+            write_output(a.report, lowering::compile_report(ri).dump(2) + "\n");
+        }
         write_output(a.output, text);
         return kOk;
     });

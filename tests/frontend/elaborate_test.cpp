@@ -214,7 +214,7 @@ TEST_CASE("limits have their own messages") {
     frontend::LoadOptions o;
     o.limits.max_loop_trips = 100;
     CHECK(error_of("qubit q\nfor i in 0..100 { x q }\n", o) == "2:1: the loop runs 101 times, over the limit of 100 iterations");
-    CHECK(error_of("routine f(x) { f(x) }\nqubit q\nf(q)\n").find("routine calls nested deeper than the limit of 64") !=
+    CHECK(error_of("routine f(x) { f(x) }\nqubit q\nf(q)\n").find("routine calls nested deeper than the limit of 256") !=
           std::string::npos);
     o = {};
     o.limits.max_qubits = 10;

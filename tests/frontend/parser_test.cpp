@@ -60,6 +60,14 @@ std::string show(const File& f, const SymbolTable& s, uint32_t e) {
     case ExprKind::And: return bin("&");
     case ExprKind::Xor: return bin("^");
     case ExprKind::Or: return bin("|");
+    case ExprKind::Shl: return bin("<<");
+    case ExprKind::Shr: return bin(">>");
+    case ExprKind::Eq: return bin("==");
+    case ExprKind::Ne: return bin("!=");
+    case ExprKind::Lt: return bin("<");
+    case ExprKind::Le: return bin("<=");
+    case ExprKind::Gt: return bin(">");
+    case ExprKind::Ge: return bin(">=");
     }
     return "?";
 }

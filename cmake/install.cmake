@@ -1,0 +1,30 @@
+# Install rules: the library, its headers, the CLI, the stdlib and a CMake package (whittle::whittle).
+include(GNUInstallDirs)
+include(CMakePackageConfigHelpers)
+
+set_target_properties(whittle_lib PROPERTIES EXPORT_NAME whittle)
+# The umbrella header is included as <whittle/whittle.h>; the module headers as "ir/circuit.h".
+target_include_directories(whittle_lib PUBLIC
+  $<BUILD_INTERFACE:${PROJECT_SOURCE_DIR}/include>
+  $<INSTALL_INTERFACE:${CMAKE_INSTALL_INCLUDEDIR}>)
+
+install(TARGETS whittle_lib EXPORT whittleTargets
+  ARCHIVE DESTINATION ${CMAKE_INSTALL_LIBDIR}
+  LIBRARY DESTINATION ${CMAKE_INSTALL_LIBDIR})
+install(TARGETS whittle RUNTIME DESTINATION ${CMAKE_INSTALL_BINDIR})
+foreach(dir ir frontend passes lowering)
+  install(DIRECTORY ${PROJECT_SOURCE_DIR}/${dir}/ DESTINATION ${CMAKE_INSTALL_INCLUDEDIR}/whittle/${dir}
+    FILES_MATCHING PATTERN "*.h" PATTERN "cli" EXCLUDE PATTERN "stdlib" EXCLUDE)
+endforeach()
+install(FILES ${PROJECT_SOURCE_DIR}/include/whittle/whittle.h DESTINATION ${CMAKE_INSTALL_INCLUDEDIR}/whittle)
+file(GLOB WHITTLE_STDLIB_FILES CONFIGURE_DEPENDS ${PROJECT_SOURCE_DIR}/frontend/stdlib/*.wq)
+install(FILES ${WHITTLE_STDLIB_FILES} DESTINATION ${CMAKE_INSTALL_DATADIR}/whittle/stdlib)
+
+set(WHITTLE_CMAKE_DIR ${CMAKE_INSTALL_LIBDIR}/cmake/whittle)
+install(EXPORT whittleTargets NAMESPACE whittle:: DESTINATION ${WHITTLE_CMAKE_DIR})
+configure_package_config_file(${PROJECT_SOURCE_DIR}/cmake/whittleConfig.cmake.in
+  ${PROJECT_BINARY_DIR}/whittleConfig.cmake INSTALL_DESTINATION ${WHITTLE_CMAKE_DIR})
+write_basic_package_version_file(${PROJECT_BINARY_DIR}/whittleConfigVersion.cmake
+  VERSION ${PROJECT_VERSION} COMPATIBILITY SameMinorVersion)
+install(FILES ${PROJECT_BINARY_DIR}/whittleConfig.cmake ${PROJECT_BINARY_DIR}/whittleConfigVersion.cmake
+  DESTINATION ${WHITTLE_CMAKE_DIR})

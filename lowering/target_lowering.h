@@ -1,0 +1,25 @@
+// Per-target lowering of the gates left after lower-controls / lower-toffoli into a target's own gates.
+#pragma once
+
+#include "ir/circuit.h"
+#include "lowering/op_sink.h"
+#include "lowering/targets.h"
+
+namespace whittle::lowering {
+
+/// Appends `op` rewritten into clifford+t gates (H S Sdg T Tdg X Y Z CNOT, measurement and
+/// feed-forward). Angles must be exact multiples of pi/4: UserError naming the op otherwise.
+void to_clifford_t(const ir::Op& op, OpSink& s, const ir::Circuit& c);
+
+/// Appends `op` as NOT/CNOT/Toffoli with positive controls; UserError for anything non-classical.
+void to_nct(const ir::Op& op, OpSink& s, const ir::Circuit& c);
+
+/// Appends `op` in the gates of a rotation target (cx+rz+sx, cz+rx+rz, iswap+rz+rx, xx+r, u+cx):
+/// one-qubit gates by Euler synthesis in the target's axes, two-qubit gates by the KAK synthesis
+/// with the target's entangler.
+void to_rotation_target(const ir::Op& op, OpSink& s, const ir::Circuit& c, Target t);
+
+/// "x (file.wq:3:5)" style label of an op for notes and errors.
+std::string describe_op(const ir::Circuit& c, const ir::Op& op);
+
+}  // namespace whittle::lowering

@@ -1,0 +1,107 @@
+// Target names and gate membership.
+#include "lowering/targets.h"
+
+#include <fmt/format.h>
+
+#include "ir/error.h"
+
+namespace whittle::lowering {
+namespace {
+
+using ir::OpKind;
+
+bool is_phase_word_gate(const ir::Op& op) {
+    // S, Sdg, T, Tdg, Z: one positive literal, angle in {pi/4, pi/2, pi, -pi/2, -pi/4}.
+    if (op.kind != OpKind::Phase || op.controls.size() != 1 || !op.controls[0].positive()) return false;
+    const int e = op.angles[0].eighths();
+    return e == 1 || e == 2 || e == 4 || e == 6 || e == 7;
+}
+
+bool positive(const ir::Op& op) {
+    for (ir::Lit l : op.controls)
+        if (!l.positive()) return false;
+    return true;
+}
+
+}  // namespace
+
+std::vector<Target> all_targets() {
+    return {Target::CliffordT, Target::CxRzSx, Target::CzRxRz, Target::ISwapRzRx, Target::XxR, Target::UCx, Target::Nct};
+}
+
+const char* target_name(Target t) {
+    switch (t) {
+    case Target::CliffordT: return "clifford+t";
+    case Target::CxRzSx: return "cx+rz+sx";
+    case Target::CzRxRz: return "cz+rx+rz";
+    case Target::ISwapRzRx: return "iswap+rz+rx";
+    case Target::XxR: return "xx+r";
+    case Target::UCx: return "u+cx";
+    case Target::Nct: return "nct";
+    }
+    return "?";
+}
+
+Target parse_target(const std::string& name) {
+    std::string known;
+    for (Target t : all_targets()) {
+        if (name == target_name(t)) return t;
+        known += (known.empty() ? "" : ", ") + std::string(target_name(t));
+    }
+    throw UserError(fmt::format("unknown target '{}' (known targets: {})", name, known));
+}
+
+OneQubitBasis one_qubit_basis(Target t) {
+    switch (t) {
+    case Target::CliffordT:
+    case Target::Nct: return OneQubitBasis::CliffordT;
+    case Target::CxRzSx: return OneQubitBasis::ZSX;
+    case Target::CzRxRz:
+    case Target::ISwapRzRx: return OneQubitBasis::ZXZ;
+    case Target::XxR: return OneQubitBasis::RRz;
+    case Target::UCx: return OneQubitBasis::U3;
+    }
+    return OneQubitBasis::U3;
+}
+
+Entangler entangler(Target t) {
+    switch (t) {
+    case Target::CzRxRz: return Entangler::CZ;
+    case Target::ISwapRzRx: return Entangler::ISwap;
+    case Target::XxR: return Entangler::XX;
+    case Target::CliffordT:
+    case Target::CxRzSx:
+    case Target::UCx:
+    case Target::Nct: return Entangler::CX;
+    }
+    return Entangler::CX;
+}
+
+bool in_target(const ir::Op& op, Target t) {
+    const size_t nc = op.controls.size();
+    switch (op.kind) {
+    case OpKind::Barrier: return true;
+    case OpKind::Measure:
+    case OpKind::Reset: return t != Target::Nct;
+    default: break;
+    }
+    const bool cnot = op.kind == OpKind::X && nc == 1 && positive(op);
+    const bool x = op.kind == OpKind::X && nc == 0;
+    const bool uncontrolled = nc == 0;
+    switch (t) {
+    case Target::CliffordT:
+        return x || cnot || (uncontrolled && (op.kind == OpKind::H || op.kind == OpKind::Y)) || is_phase_word_gate(op);
+    case Target::Nct: return op.kind == OpKind::X && nc <= 2 && positive(op) && !op.is_conditioned();
+    case Target::CxRzSx: return x || cnot || (uncontrolled && (op.kind == OpKind::RZ || op.kind == OpKind::SX));
+    case Target::CzRxRz:
+        return (op.kind == OpKind::Phase && nc == 2 && positive(op) && op.angles[0] == ir::Angle::pi_times(1)) ||
+               (uncontrolled && (op.kind == OpKind::RX || op.kind == OpKind::RZ));
+    case Target::ISwapRzRx:
+        return op.kind == OpKind::ISwap || (uncontrolled && (op.kind == OpKind::RX || op.kind == OpKind::RZ));
+    case Target::XxR: return op.kind == OpKind::XX || op.kind == OpKind::R || (uncontrolled && op.kind == OpKind::RZ);
+    case Target::UCx: return cnot || (uncontrolled && op.kind == OpKind::U);
+    }
+    return false;
+}
+
+}  // namespace whittle::lowering

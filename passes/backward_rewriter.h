@@ -1,0 +1,38 @@
+// The engine under cancel, merge-controls and gate-cancel: each op walks back over the ops it commutes with.
+#pragma once
+
+#include <cstdint>
+#include <functional>
+
+#include "ir/circuit.h"
+#include "passes/pass.h"
+
+namespace whittle::passes {
+
+/// What a combine rule did with a mover that met an earlier op.
+enum class Combined : uint8_t {
+    No,        ///< no interaction; the walk goes on if the two commute
+    Absorbed,  ///< the mover is gone; the earlier op was changed in place (still non-trivial)
+    Vanished,  ///< both are gone (inverse pair, or the merged op became the identity)
+};
+
+/// A combine rule: `earlier` is a live op the (possibly transformed) `mover` reached. The rule may
+/// change `earlier` (but may only add wires to it through the `added_wire` out-list) and add to
+/// `global` when it absorbs. It is called only with non-fence ops.
+using CombineRule = std::function<Combined(ir::Op& earlier, const ir::Op& mover, ir::Angle& global,
+                                           std::vector<uint32_t>& added_wires, PassResult& result)>;
+
+struct RewriteLimits {
+    /// Live ops sharing a wire with the mover that one walk may visit (keeps the pass O(n * window)).
+    uint32_t window = 96;
+};
+
+/// Runs one left-to-right sweep: every op is moved back across the ops it commutes with (rules in
+/// commutation.h) until `combine` absorbs it or a non-commuting op stops it. Per-wire indices of
+/// the ops placed so far keep each walk to the ops that share a wire with the mover. The circuit
+/// is left untouched (and false returned) when no rule fired. Pair ids of ops that took part in a
+/// combination other than "a compute op met its own uncompute and both vanished" are cleared on
+/// every op of that pair, since the halves are then no longer inverses of each other.
+bool rewrite_backwards(ir::Circuit& c, const CombineRule& combine, PassResult& result, RewriteLimits limits = {});
+
+}  // namespace whittle::passes

@@ -1,0 +1,135 @@
+// Commutation rules shared by cancel, merge-controls and gate-cancel.
+#include "passes/commutation.h"
+
+#include <algorithm>
+
+namespace whittle::passes {
+
+using ir::Lit;
+using ir::Op;
+using ir::OpKind;
+
+namespace {
+
+WireRole target_role(OpKind k) {
+    switch (k) {
+    case OpKind::X:
+    case OpKind::SX:
+    case OpKind::SXdg:
+    case OpKind::RX: return WireRole::X;
+    case OpKind::Y:
+    case OpKind::RY: return WireRole::Y;
+    case OpKind::H: return WireRole::H;
+    case OpKind::RZ:
+    case OpKind::Phase:
+    case OpKind::Parity: return WireRole::Z;
+    case OpKind::U:
+    case OpKind::Swap:
+    case OpKind::ISwap:
+    case OpKind::XX:
+    case OpKind::R:
+    case OpKind::Measure:
+    case OpKind::Reset:
+    case OpKind::Barrier: return WireRole::Other;
+    }
+    return WireRole::Other;
+}
+
+bool is_uncontrolled_x(const Op& op) {
+    return op.kind == OpKind::X && op.controls.empty() && !op.is_conditioned();
+}
+
+/// Ops whose controls (or Phase literals) are projectors: identity unless every literal holds.
+bool literals_are_projectors(const Op& op) {
+    return op.kind != OpKind::Parity && op.kind != OpKind::Barrier;
+}
+
+bool orthogonal(const Op& a, const Op& b) {
+    if (!literals_are_projectors(a) || !literals_are_projectors(b)) return false;
+    for (Lit la : a.controls)
+        for (Lit lb : b.controls)
+            if (la == lb.flipped()) return true;
+    return false;
+}
+
+/// Moves `mover` before an uncontrolled X on `w` (the mover touches w).
+bool move_before_not(uint32_t w, Op& mover, ir::Angle& global) {
+    if (mover.target == w || mover.target2 == w) {
+        if (wire_role(mover, w) == WireRole::X) return true;
+        if (mover.kind == OpKind::RZ && mover.controls.empty()) {
+            if (!mover.angles[0].is_zero()) global += ir::Angle::pi_times(1);
+            mover.angles[0] = -mover.angles[0];
+            return true;
+        }
+        return false;
+    }
+    if (mover.kind == OpKind::Parity) {
+        global += mover.angles[0];
+        mover.angles[0] = -mover.angles[0];
+        return true;
+    }
+    if (mover.kind == OpKind::Barrier) return false;
+    for (Lit& l : mover.controls)
+        if (l.wire() == w) {
+            l = l.flipped();
+            return true;
+        }
+    return false;
+}
+
+}  // namespace
+
+WireRole wire_role(const Op& op, uint32_t wire) {
+    if (op.target == wire) return target_role(op.kind);
+    if (op.target2 == wire) return target_role(op.kind);
+    for (Lit l : op.controls)
+        if (l.wire() == wire) return op.kind == OpKind::Barrier ? WireRole::Other : WireRole::Z;
+    return WireRole::None;
+}
+
+bool is_fence(const Op& op) {
+    return op.is_conditioned() || op.kind == OpKind::Measure || op.kind == OpKind::Reset ||
+           op.kind == OpKind::Barrier;
+}
+
+bool has_projector_literal(const Op& op, Lit lit) {
+    if (!literals_are_projectors(op)) return false;
+    return std::find(op.controls.begin(), op.controls.end(), lit) != op.controls.end();
+}
+
+bool same_literals(const ir::LitVec& a, const ir::LitVec& b) {
+    if (a.size() != b.size()) return false;
+    if (std::equal(a.begin(), a.end(), b.begin())) return true;
+    ir::LitVec sa = a, sb = b;
+    std::sort(sa.begin(), sa.end());
+    std::sort(sb.begin(), sb.end());
+    return std::equal(sa.begin(), sa.end(), sb.begin());
+}
+
+bool move_before(const Op& earlier, Op& mover, ir::Angle& global) {
+    if (is_fence(earlier) || is_fence(mover)) return false;
+    std::vector<uint32_t> ws;
+    mover.wires(ws);
+    bool shares = false;
+    for (uint32_t w : ws)
+        if (wire_role(earlier, w) != WireRole::None) shares = true;
+    if (!shares) return true;
+    if (orthogonal(earlier, mover)) return true;
+    if (is_uncontrolled_x(earlier)) {
+        Op moved = mover;
+        ir::Angle g = global;
+        if (!move_before_not(earlier.target, moved, g)) return false;
+        mover = std::move(moved);
+        global = g;
+        return true;
+    }
+    for (uint32_t w : ws) {
+        const WireRole a = wire_role(earlier, w);
+        if (a == WireRole::None) continue;
+        const WireRole b = wire_role(mover, w);
+        if (a != b || a == WireRole::Other) return false;
+    }
+    return true;
+}
+
+}  // namespace whittle::passes

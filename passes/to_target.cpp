@@ -1,0 +1,41 @@
+// to-target: dispatch per target; ops already in the target stay as they are.
+#include "passes/to_target.h"
+
+#include "ir/error.h"
+#include "lowering/target_lowering.h"
+#include "lowering/targets.h"
+
+namespace whittle::passes {
+
+PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
+    PassResult r;
+    if (opts.target.empty()) return r;
+    const lowering::Target t = lowering::parse_target(opts.target);
+    bool all_in = true;
+    for (const ir::Op& op : c.ops) all_in = all_in && lowering::in_target(op, t);
+    if (all_in) return r;
+    std::vector<ir::Op> out;
+    out.reserve(c.ops.size() * 2);
+    ir::Angle phase = c.global_phase;
+    lowering::OpSink s(out, phase);
+    for (const ir::Op& op : c.ops) {
+        if (lowering::in_target(op, t)) {
+            out.push_back(op);
+            continue;
+        }
+        r.count("ops-rewritten");
+        switch (t) {
+        case lowering::Target::CliffordT: lowering::to_clifford_t(op, s, c); break;
+        case lowering::Target::Nct: lowering::to_nct(op, s, c); break;
+        default: lowering::to_rotation_target(op, s, c, t); break;
+        }
+    }
+    for (const ir::Op& op : out)
+        WHITTLE_ASSERT(lowering::in_target(op, t) && "to-target left a gate outside the target");
+    c.ops = std::move(out);
+    c.global_phase = phase;
+    r.changed = true;
+    return r;
+}
+
+}  // namespace whittle::passes

@@ -1,0 +1,63 @@
+// T-counts of the library's routines after the Clifford+T lowering, against the published counts.
+#include <doctest/doctest.h>
+
+#include <iostream>
+
+#include "frontend/load.h"
+#include "ir/circuit.h"
+#include "ir/classical_sim.h"
+#include "ir/resources.h"
+#include "passes/pipeline.h"
+
+using namespace whittle;
+
+namespace {
+
+ir::Circuit load(const std::string& program) {
+    frontend::SourceManager sm;
+    return frontend::load_text(program, "tcount.wq", frontend::InputFormat::Wq, sm);
+}
+
+int64_t t_count_after(const std::string& program, int level, bool measure) {
+    ir::Circuit c = load(program);
+    passes::PassOptions o;
+    o.target = "clifford+t";
+    o.level = level;
+    o.allow_measurement = measure;
+    passes::run_passes(c, passes::pipeline_for(o), o);
+    return int64_t(ir::count_resources(c).t_count);
+}
+
+std::string adder(unsigned n) {
+    return "use \"arith\"\nqubit a[" + std::to_string(n) + "], b[" + std::to_string(n) + "]\nadd_and(a, b)\n";
+}
+
+}  // namespace
+
+TEST_CASE("add_and: T-count with measured erase <= 4n, without measurement <= 8n + 8") {
+    // Gidney 2018 (arXiv:1709.06648), Fig. 1: 4(n-1) T with the temporary AND's measured erase
+    // (seen; formula derived, CHECKS.md). Without measurement the goal of issue 7 is 8n + 8.
+    for (unsigned n : {2u, 4u, 5u, 8u, 16u, 32u}) {
+        CAPTURE(n);
+        int64_t with_measurement = t_count_after(adder(n), 2, true);
+        int64_t without = t_count_after(adder(n), 2, false);
+        MESSAGE("add_and n=" << n << ": T " << with_measurement << " with measurement, " << without << " without");
+        CHECK(with_measurement <= int64_t(4 * n));
+        CHECK(without <= int64_t(8 * n + 8));
+    }
+    CHECK(t_count_after(adder(5), 2, true) <= 16);  // the 5-bit adder of Gidney 2018: 16 T
+}
+
+TEST_CASE("gf2_mul n = 4 after -O2, reported against the published counts") {
+    // GF(2^4) multiplier, x^4 + x + 1: 16 Toffolis = 112 T unoptimized (seen, CHECKS.md); 68 after
+    // phase folding (Amy-Maslov-Mosca 2014 arXiv:1303.2042 / Nam et al. 2018 arXiv:1710.07345;
+    // memory, medium) and 39 best known (Ruiz et al. 2025, arXiv:2402.14396, Table 1; seen). Our
+    // circuit is a different schoolbook layout with the same Toffoli count, so the numbers are
+    // reported, and only the unoptimized count and an upper bound are checked.
+    std::string program = "use \"arith\"\nqubit a[4], b[4], c[4]\ngf2_mul(a, b, c, 19)\n";
+    int64_t o0 = t_count_after(program, 0, false);
+    int64_t o2 = t_count_after(program, 2, false);
+    MESSAGE("gf2_mul n=4: T " << o0 << " at -O0, " << o2 << " at -O2 (published: 112, 68 phase folding, 39 best known)");
+    CHECK(o0 == 112);
+    CHECK(o2 <= o0);
+}

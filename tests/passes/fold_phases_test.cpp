@@ -1,0 +1,117 @@
+// fold-phases: phase folding identities (Amy, Maslov, Mosca 2014, arXiv:1303.2042) and random circuits.
+#include <doctest/doctest.h>
+
+#include "passes/fold_phases.h"
+#include "passes/normalize.h"
+#include "pass_check.h"
+
+using namespace whittle;
+using namespace whittle::test;
+
+namespace {
+
+Op t(uint32_t w, int eighths = 1) { return Op::phase(Angle::pi_times(eighths, 4), {Lit::pos(w)}); }
+Op cx(uint32_t c, uint32_t t) { return Op::x(t, {Lit::pos(c)}); }
+
+Circuit run(Circuit c, bool expect_change = true) {
+    Circuit before = c;
+    passes::PassResult r = passes::fold_phases(c, {});
+    CHECK(r.changed == expect_change);
+    verify(c);
+    CHECK((circuit_unitary(before) - circuit_unitary(c)).norm() < 1e-9);
+    return c;
+}
+
+/// Non-Clifford terms: phases and parities whose angle is not a multiple of pi/2, weighted as their
+/// parity expansion (a k-literal product costs 2^k - 1 when angle/2^{k-1} is not a multiple of pi/2).
+int64_t non_clifford_terms(const Circuit& c) {
+    int64_t n = 0;
+    for (const Op& op : c.ops) {
+        if (op.kind == OpKind::Parity && !op.angles[0].is_multiple_of_pi_over(2)) ++n;
+        if (op.kind == OpKind::Phase) {
+            const size_t k = op.controls.size();
+            if (!op.angles[0].divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(2)) n += (int64_t(1) << k) - 1;
+        }
+    }
+    return n;
+}
+
+}  // namespace
+
+TEST_CASE("terms on equal parities merge across CNOTs where cancel cannot reach (AMM 2014 sec. 4 idea)") {
+    // T b; CX(a,b): b = a^b; T b; CX(b,a): a = b; T a  -> the first and last T act on x_b: S at the first.
+    Circuit c = wires(2);
+    c.ops = {t(1), cx(0, 1), t(1), cx(1, 0), t(0)};
+    c = run(c);
+    REQUIRE(c.ops.size() == 4);
+    CHECK(c.ops[0].angles[0] == Angle::pi_times(1, 2));
+    CHECK(count_resources(c).t_count == 1);
+}
+
+TEST_CASE("an X makes the negated polynomial: T a; X a; T a = e^{i pi/4} X a (up to placement)") {
+    Circuit c = wires(1);
+    c.ops = {t(0), Op::x(0), t(0)};
+    c = run(c);
+    CHECK(count_resources(c).t_count == 0);
+}
+
+TEST_CASE("a Hadamard introduces a path variable: T H T does not merge") {
+    Circuit c = wires(1);
+    c.ops = {t(0), Op::one(OpKind::H, 0), t(0)};
+    run(c, false);
+}
+
+TEST_CASE("AND terms: CS = e^{i pi/2 ab} expands into T a, T b, T-dagger on a^b and cancels its inverse parities") {
+    // The phase-polynomial identity ab = (a + b - (a ^ b)) / 2 (standard; AMM 2014).
+    Circuit c = wires(2);
+    c.ops = {Op::phase(Angle::pi_times(1, 2), {Lit::pos(0), Lit::pos(1)}), t(0, -1), t(1, -1),
+             Op::parity(Angle::pi_times(1, 4), {0, 1})};
+    c = run(c);
+    CHECK(c.ops.empty());
+}
+
+TEST_CASE("two CCZs sharing two controls: the shared parities become Clifford (14 -> 8 non-Clifford terms)") {
+    Circuit c = wires(4);
+    c.ops = {Op::phase(Angle::pi_times(1), {Lit::pos(0), Lit::pos(1), Lit::pos(2)}),
+             Op::phase(Angle::pi_times(1), {Lit::pos(0), Lit::pos(1), Lit::pos(3)})};
+    CHECK(non_clifford_terms(c) == 14);
+    c = run(c);
+    CHECK(non_clifford_terms(c) == 8);
+}
+
+TEST_CASE("products on equal polynomials merge without expansion: CCZ . Toffoli-free middle . CCZ vanishes") {
+    Circuit c = wires(4);
+    Op ccz = Op::phase(Angle::pi_times(1), {Lit::pos(0), Lit::pos(1), Lit::pos(2)});
+    c.ops = {ccz, cx(0, 3), Op::one(OpKind::H, 3), cx(2, 1), cx(2, 1), ccz};
+    c = run(c);
+    for (const Op& op : c.ops) CHECK(op.kind != OpKind::Phase);
+}
+
+TEST_CASE("negative literals: Phase(t; a & !b) and Phase(t; a & b) are folded as polynomials (a b ^ a and a b)") {
+    Circuit c = wires(2);
+    c.ops = {Op::phase(Angle::pi_times(1, 4), {Lit::pos(0), Lit::neg(1)}), Op::x(1),
+             Op::phase(Angle::pi_times(-1, 4), {Lit::pos(0), Lit::pos(1)})};
+    c = run(c);  // after X b the second term is a & !b_in: the same polynomial, opposite angle
+    CHECK(c.ops.size() == 1);
+}
+
+TEST_CASE("fold-phases on random circuits (state vector, global phase included)") {
+    CHECK(check_pass_on_random(passes::fold_phases, 300, 51) > 50);
+}
+
+TEST_CASE("fold-phases never raises the non-Clifford term count; random Clifford+T never get more T; idempotent") {
+    std::mt19937_64 rng(52);
+    RandomSpec ct;
+    ct.clifford_t_only = true;
+    for (int i = 0; i < 300; ++i) {
+        Circuit c = random_circuit(rng, i % 2 ? ct : RandomSpec{});
+        passes::normalize(c, {});
+        const int64_t before = non_clifford_terms(c);
+        const uint64_t t_before = count_resources(c).t_count;
+        passes::fold_phases(c, {});
+        CHECK(non_clifford_terms(c) <= before);
+        if (i % 2) CHECK(count_resources(c).t_count <= t_before);
+        Circuit again = c;
+        CHECK_FALSE(passes::fold_phases(again, {}).changed);
+    }
+}
