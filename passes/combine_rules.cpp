@@ -132,8 +132,10 @@ Combined merge_controls_rule(Op& e, const Op& m, Angle& global, std::vector<uint
         result.count("controls-merged");
         return Combined::Absorbed;
     }
-    // Split that cancels: op(C) with op(C & l) (either order) -> op(C & !l).
+    // Split that cancels: op(C) with op(C & l) (either order) -> op(C & !l). Not for an empty C:
+    // X(t) X(t; l) = X(t; !l) trades two ops for a negative control, which lowers to three.
     Lit extra;
+    if (std::min(e.controls.size(), m.controls.size()) == 0) return Combined::No;
     if (one_extra_literal(e.controls, m.controls, extra)) {
         if (!x && !(e.angles[0] + m.angles[0]).is_zero()) return Combined::No;
         e.controls.push_back(extra.flipped());

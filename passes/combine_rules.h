@@ -14,7 +14,8 @@ Combined cancel_rule(ir::Op& earlier, const ir::Op& mover, ir::Angle& global, st
                      PassResult& result);
 
 /// The same X-type or phase op under C&x and under C&!x is that op under C; X(t; C) and X(t; C&x)
-/// make X(t; C&!x); Phase(a; C) and Phase(-a; C&x) make Phase(a; C&!x) (the split that cancels).
+/// make X(t; C&!x); Phase(a; C) and Phase(-a; C&x) make Phase(a; C&!x) (the split that cancels; only for non-empty C, since
+/// X(t) X(t; x) = X(t; !x) would trade two ops for a negative control that lowers to three).
 Combined merge_controls_rule(ir::Op& earlier, const ir::Op& mover, ir::Angle& global,
                              std::vector<uint32_t>& added_wires, PassResult& result);
 

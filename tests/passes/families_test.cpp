@@ -133,3 +133,55 @@ TEST_CASE("lowering first, then only the low-level passes: T-counts and equivale
         CHECK(state_distance(v, opt, rng) < 1e-9);
     }
 }
+
+namespace {
+
+ir::Circuit compile_o2(const ir::Circuit& in, int level = 2) {
+    passes::PassOptions o;
+    o.level = level;
+    o.target = "clifford+t";
+    ir::Circuit c = in;
+    passes::run_passes(c, passes::pipeline_for(o), o);
+    return c;
+}
+
+}  // namespace
+
+TEST_CASE("measured goals at -O2 --target clifford+t, no measurement, no hints") {
+    // Goals: phase-folding values (CHECKS.md: Amy, Maslov, Mosca 2014, arXiv:1303.2042; Nam et al.
+    // 2018, arXiv:1710.07345; from memory: high confidence for the MCX families, medium for GF(2^n)).
+    const uint32_t ns[] = {3, 4, 5, 10};
+    for (uint32_t n : ns) {
+        const uint64_t v = count_resources(compile_o2(mcx_vchain(n).circuit)).t_count;
+        const uint64_t b = count_resources(compile_o2(mcx_barenco(n).circuit)).t_count;
+        MESSAGE("n=" << n << ": V-chain T " << v << " (goal " << 8 * n - 9 << "), Barenco T " << b << " (goal "
+                     << 12 * n - 20 << ")");
+        CHECK(v <= 8 * n - 9);
+        CHECK(b <= 12 * n - 20);
+    }
+    const std::pair<uint32_t, uint32_t> gf[] = {{4, 0x13}, {5, 0x25}, {6, 0x43}};
+    const uint64_t goal[] = {68, 115, 150};
+    for (int i = 0; i < 3; ++i) {
+        const uint64_t t = count_resources(compile_o2(gf2_multiplier(gf[i].first, gf[i].second).circuit)).t_count;
+        MESSAGE("GF(2^" << gf[i].first << "): T " << t << " (goal " << goal[i] << ")");
+        CHECK(t <= goal[i]);
+    }
+}
+
+TEST_CASE("-O2 clifford+t output of the small family members is equivalent to the input (state vector)") {
+    std::mt19937_64 rng(81);
+    for (const FamilyCircuit& f : {mcx_vchain(3), mcx_vchain(4), mcx_barenco(3), mcx_barenco(4), gf2_multiplier(4, 0x13)}) {
+        ir::Circuit out = compile_o2(f.circuit);
+        INFO(f.name);
+        CHECK(out.num_qubits() == f.circuit.num_qubits());
+        CHECK(state_distance_up_to_phase(f.circuit, out, rng) < 1e-8);
+    }
+}
+
+TEST_CASE("-O2 on the output of -O2 never adds T (families, clifford+t)") {
+    for (const FamilyCircuit& f : {mcx_vchain(5), mcx_barenco(5), gf2_multiplier(5, 0x25)}) {
+        ir::Circuit once = compile_o2(f.circuit);
+        ir::Circuit twice = compile_o2(once);
+        CHECK(count_resources(twice).t_count <= count_resources(once).t_count);
+    }
+}

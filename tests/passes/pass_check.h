@@ -38,6 +38,22 @@ inline double state_distance(const Circuit& a, const Circuit& b, std::mt19937_64
     return worst;
 }
 
+/// As state_distance, up to one global phase per state (for the lowering, which may drop it).
+inline double state_distance_up_to_phase(const Circuit& a, const Circuit& b, std::mt19937_64& rng, int states = 2) {
+    double worst = 0;
+    for (int k = 0; k < states; ++k) {
+        StateVector sa(a.num_qubits());
+        sa.randomize(rng);
+        StateVector sb = sa;
+        sa.run(a);
+        sb.run(b);
+        const std::complex<double> ip = sb.amplitudes().dot(sa.amplitudes());
+        const std::complex<double> ph = std::abs(ip) > 1e-300 ? ip / std::abs(ip) : 1.0;
+        worst = std::max(worst, (sa.amplitudes() - ph * sb.amplitudes()).norm());
+    }
+    return worst;
+}
+
 /// Equal permutations on every basis input (X-type circuits; the independent bit-parallel simulator).
 inline bool same_permutation(const Circuit& a, const Circuit& b) {
     const uint32_t n = a.num_qubits();

@@ -67,3 +67,43 @@ TEST_CASE("-O1..-O3 pipelines keep random circuits equivalent (state vector, glo
         CHECK(check_pass_on_random(pipeline, 100, 40 + uint64_t(level)) > 40);
     }
 }
+
+TEST_CASE("random Clifford+T circuits never get more T through -O2 and -O3 with the clifford+t lowering; "
+          "-O2 on the output of -O2 never adds T") {
+    std::mt19937_64 rng(91);
+    RandomSpec ct;
+    ct.clifford_t_only = true;
+    ct.max_qubits = 10;
+    ct.max_ops = 150;
+    int reduced = 0;
+    for (int i = 0; i < 200; ++i) {
+        Circuit c = random_circuit(rng, ct);
+        passes::PassOptions o;
+        o.target = "clifford+t";
+        o.level = i % 4 == 3 ? 3 : 2;
+        const uint64_t t0 = count_resources(c).t_count;
+        Circuit once = c;
+        passes::run_passes(once, passes::pipeline_for(o), o);
+        const uint64_t t1 = count_resources(once).t_count;
+        CHECK(t1 <= t0);
+        if (t1 < t0) ++reduced;
+        Circuit twice = once;
+        passes::run_passes(twice, passes::pipeline_for(o), o);
+        CHECK(count_resources(twice).t_count <= t1);
+        if (i < 40) CHECK(state_distance_up_to_phase(c, twice, rng, 1) < 1e-8);
+    }
+    CHECK(reduced > 50);
+}
+
+TEST_CASE("-O2 on the output of -O2 never adds T on random high-level circuits (no target)") {
+    std::mt19937_64 rng(92);
+    for (int i = 0; i < 200; ++i) {
+        Circuit c = random_circuit(rng);
+        passes::PassOptions o;
+        Circuit once = c;
+        passes::run_passes(once, passes::pipeline_for(o), o);
+        Circuit twice = once;
+        passes::run_passes(twice, passes::pipeline_for(o), o);
+        CHECK(count_resources(twice).t_count <= count_resources(once).t_count);
+    }
+}
