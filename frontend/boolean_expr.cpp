@@ -130,11 +130,15 @@ void normalize(Cubes& cs) {
     cs = std::move(out);
 }
 
+/// !f = 1 ^ f: flips a one-literal cube when there is one (!(x ^ r) = !x ^ r), else toggles the
+/// constant cube.
 Cubes negate(Cubes f) {
-    if (f.size() == 1 && f[0].size() == 1) {
-        f[0][0] = f[0][0].flipped();
-        return f;
-    }
+    for (LitVec& c : f)
+        if (c.size() == 1) {
+            c[0] = c[0].flipped();
+            normalize(f);
+            return f;
+        }
     f.push_back(LitVec{});
     normalize(f);
     return f;

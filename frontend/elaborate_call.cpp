@@ -85,7 +85,16 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
     call_stack_.push_back(r.sym);
     size_t start = c_.ops.size();
     ir::Angle phase_before = c_.global_phase;
-    exec_block(rf, r.body);
+    try {
+        exec_block(rf, r.body);
+    } catch (const UserError& e) {
+        // Name the call site once (the innermost call), so an error inside a routine can be traced.
+        std::string msg = e.what();
+        if (msg.find(" called at line ") != std::string::npos) throw;
+        throw UserError(fmt::format("{} (in routine '{}' called at line {} of {})", msg, name(r.sym), s.line,
+                                    std::filesystem::path(sm_.name(f.file_id)).filename().string()),
+                        e.loc(), e.file_name());
+    }
     call_stack_.pop_back();
     locals_.resize(mark);
     frame_base_ = saved_base;

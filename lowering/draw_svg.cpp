@@ -78,7 +78,7 @@ double label_area(const Layout& L) {
     for (const Lane& lane : L.lanes) {
         w = std::max(w, double(display_width(lane.label)) * kCharW + 30);
         if (lane.group_start)
-            w = std::max(w, double(display_width(lane.group)) * 8.6 + double(lane.badge.size()) * 6.5 + 34);
+            w = std::max(w, double(display_width(lane.group)) * 9.4 + double(lane.badge.size()) * 6.5 + 34);
     }
     return w;
 }
@@ -125,7 +125,7 @@ double draw_row(Svg& svg, const Layout& L, uint32_t c0, uint32_t c1, double top,
             double hy = inline_header ? lane_y[i] + 4.5 : lane_y[i] - kLanePitch / 2 - 4;
             svg.text(left, hy, lane.group, 12.5, kInk, "start", "bold");
             Badge b = badge_colors(lane.badge);
-            double bx = left + double(display_width(lane.group)) * 8.6 + 6;
+            double bx = left + double(display_width(lane.group)) * 9.4 + 6;
             double bw = double(lane.badge.size()) * 6.5 + 10;
             svg.rect(bx, hy - 11, bw, 14, 7, b.fill, b.ink, 0.8);
             svg.text(bx + bw / 2, hy - 0.5, lane.badge, 9.5, b.ink);
@@ -245,7 +245,7 @@ std::string draw_svg(const std::vector<DrawPanel>& panels, const DrawOptions& op
             uint32_t c1 = std::min(L.columns, c0 + step);
             if (c0) {
                 y += kRowGap / 2;
-                svg.text(kMargin, y, fmt::format("columns {}–{}", c0 + 1, c1), 10, "#94a3b8", "start", "normal", "italic");
+                svg.text(kMargin, y, c1 == c0 + 1 ? fmt::format("column {}", c1) : fmt::format("columns {}–{}", c0 + 1, c1), 10, "#94a3b8", "start", "normal", "italic");
             }
             y += draw_row(svg, L, c0, c1, y, width);
         }

@@ -79,7 +79,7 @@ void draw_row(const Layout& L, uint32_t c0, uint32_t c1, const TextSymbols& S, s
     for (uint32_t c = c0; c < c1; ++c) col_x[c - c0 + 1] = col_x[c - c0] + L.column_chars[c] + 4;
     auto center = [&](uint32_t c) { return col_x[c - c0] + (L.column_chars[c] + 4) / 2; };
     const size_t width = col_x.back() + 1;
-    Grid g(wire_line(L.lanes.size()), width);
+    Grid g(L.lanes.empty() ? 1 : wire_line(L.lanes.size() - 1) + 1, width);
 
     for (size_t i = 0; i < L.lanes.size(); ++i) {
         const Lane& lane = L.lanes[i];
@@ -167,7 +167,8 @@ std::string draw_text(const std::vector<DrawPanel>& panels, const DrawOptions& o
         }
         for (uint32_t c0 = 0; c0 < L.columns; c0 += step) {
             uint32_t c1 = std::min(L.columns, c0 + step);
-            if (c0) out += fmt::format("{}{} columns {}-{}\n", S.dash, S.dash, c0 + 1, c1);
+            if (c0 && c1 == c0 + 1) out += fmt::format("{}{} column {}\n", S.dash, S.dash, c1);
+            else if (c0) out += fmt::format("{}{} columns {}-{}\n", S.dash, S.dash, c0 + 1, c1);
             draw_row(L, c0, c1, S, out);
         }
     }

@@ -91,7 +91,8 @@ private:
 
     /// One statement; under a classical condition it gets `if(c==v)` (2.0) or `if (c == v) { }` (3.0).
     void line(const std::string& stmt) {
-        if (!cur_->is_conditioned()) {
+        // A barrier has no effect to condition (and 2.0 has no conditioned barrier): write it plainly.
+        if (!cur_->is_conditioned() || cur_->kind == OpKind::Barrier) {
             body_ += stmt + "\n";
             return;
         }

@@ -17,8 +17,8 @@ const char* metric_name(passes::Metric m) {
     return "?";
 }
 
-nlohmann::json resources_json(const ir::Resources& r) {
-    nlohmann::json j;
+Json resources_json(const ir::Resources& r) {
+    Json j;
     j["qubits"] = r.qubits;
     j["qubits_by_role"] = {{"data", r.data_qubits}, {"ancilla", r.clean_qubits}, {"borrow", r.dirty_qubits}};
     j["ops"] = r.ops;
@@ -35,8 +35,8 @@ nlohmann::json resources_json(const ir::Resources& r) {
     return j;
 }
 
-nlohmann::json count_json(const ir::Circuit& c, const std::string& input) {
-    nlohmann::json j;
+Json count_json(const ir::Circuit& c, const std::string& input) {
+    Json j;
     j["schema"] = kReportSchema;
     j["input"] = input;
     j.update(resources_json(ir::count_resources(c)));
@@ -45,15 +45,15 @@ nlohmann::json count_json(const ir::Circuit& c, const std::string& input) {
 
 namespace {
 
-nlohmann::json loc_json(const ir::SourceLoc& loc) {
+Json loc_json(const ir::SourceLoc& loc) {
     if (!loc.known()) return nullptr;
     return {{"line", loc.line}, {"column", loc.column}};
 }
 
-nlohmann::json pass_json(const passes::PassRecord& r) {
-    nlohmann::json stats = nlohmann::json::object();
+Json pass_json(const passes::PassRecord& r) {
+    Json stats = Json::object();
     for (const auto& [name, value] : r.result.stats) stats[name] = value;
-    nlohmann::json j;
+    Json j;
     j["name"] = r.name;
     j["changed"] = r.changed;
     j["ops_before"] = r.ops_before;
@@ -63,46 +63,46 @@ nlohmann::json pass_json(const passes::PassRecord& r) {
     j["cnot_before"] = r.cnot_before;
     j["cnot_after"] = r.cnot_after;
     j["seconds"] = r.seconds;
-    j["checked_by"] = r.checked_by.empty() ? nlohmann::json(nullptr) : nlohmann::json(r.checked_by);
+    j["checked_by"] = r.checked_by.empty() ? Json(nullptr) : Json(r.checked_by);
     j["stats"] = stats;
     j["notes"] = r.result.notes;
     j["error_bound"] = r.result.error_bound;
     return j;
 }
 
-nlohmann::json construction_json(const std::string& pass, const passes::Construction& k) {
-    nlohmann::json j;
+Json construction_json(const std::string& pass, const passes::Construction& k) {
+    Json j;
     j["pass"] = pass;
     j["op"] = k.op;
     j["method"] = k.method;
     j["reason"] = k.reason;
     j["loc"] = loc_json(k.loc);
-    j["t_count"] = k.t_count < 0 ? nlohmann::json(nullptr) : nlohmann::json(k.t_count);
-    j["cnot_count"] = k.cnot_count < 0 ? nlohmann::json(nullptr) : nlohmann::json(k.cnot_count);
+    j["t_count"] = k.t_count < 0 ? Json(nullptr) : Json(k.t_count);
+    j["cnot_count"] = k.cnot_count < 0 ? Json(nullptr) : Json(k.cnot_count);
     return j;
 }
 
 }  // namespace
 
-nlohmann::json compile_report(const CompileReportInput& in) {
-    nlohmann::json j;
+Json compile_report(const CompileReportInput& in) {
+    Json j;
     j["schema"] = kReportSchema;
     j["input"] = in.input;
-    j["target"] = in.options.target.empty() ? nlohmann::json(nullptr) : nlohmann::json(in.options.target);
+    j["target"] = in.options.target.empty() ? Json(nullptr) : Json(in.options.target);
     j["level"] = in.options.level;
     j["options"] = {
         {"optimize_for", metric_name(in.options.optimize_for)},
         {"allow_measurement", in.options.allow_measurement},
         {"extra_ancillas", in.options.extra_ancillas},
         {"epsilon", in.options.epsilon},
-        {"passes", in.explicit_passes.empty() ? nlohmann::json(nullptr) : nlohmann::json(in.explicit_passes)},
+        {"passes", in.explicit_passes.empty() ? Json(nullptr) : Json(in.explicit_passes)},
         {"emit", in.emit},
         {"verify", in.verify},
     };
     if (in.output) j.update(resources_json(ir::count_resources(*in.output)));
-    j["input_resources"] = in.source ? resources_json(ir::count_resources(*in.source)) : nlohmann::json(nullptr);
-    nlohmann::json pass_list = nlohmann::json::array();
-    nlohmann::json constructions = nlohmann::json::array();
+    j["input_resources"] = in.source ? resources_json(ir::count_resources(*in.source)) : Json(nullptr);
+    Json pass_list = Json::array();
+    Json constructions = Json::array();
     double error = 0;
     double seconds = 0;
     for (const passes::PassRecord& r : in.records) {

@@ -14,15 +14,18 @@
 
 namespace whittle::lowering {
 
+/// The report's JSON type: keys keep the order they were written in (the schema's order).
+using Json = nlohmann::ordered_json;
+
 /// The value of the "schema" field; the number goes up when a field changes meaning or goes away.
 inline constexpr const char* kReportSchema = "whittle-report/1";
 
 /// The resource object (qubits, qubits_by_role, t_count, t_depth, cnot_count, two_qubit_count,
 /// depth, gates, ...): the whole of `count --json` and the top level of the compile report.
-nlohmann::json resources_json(const ir::Resources& r);
+Json resources_json(const ir::Resources& r);
 
 /// `whittle count --json`: "schema", "input", then the resource fields of `c`.
-nlohmann::json count_json(const ir::Circuit& c, const std::string& input);
+Json count_json(const ir::Circuit& c, const std::string& input);
 
 /// Everything the compile report says besides the output circuit's resources.
 struct CompileReportInput {
@@ -39,7 +42,7 @@ struct CompileReportInput {
 /// `whittle compile --report FILE.json`: the output's resource fields at the top level, plus
 /// "input_resources", "target", "level", "options", "passes", "constructions" and
 /// "approximation_error_bound" (the sum of the passes' error bounds; 0 when nothing was approximated).
-nlohmann::json compile_report(const CompileReportInput& in);
+Json compile_report(const CompileReportInput& in);
 
 /// The plain `whittle count` table: one "name  value" row per line, values aligned in one column,
 /// then the gates by name, aligned likewise.

@@ -14,9 +14,7 @@ EngineResult check_path_sum(const Aligned& al, const EquivOptions& opts, const D
     PathSum ps(n, al.clean, true);
     try {
         for (const ir::Op& op : al.a.ops) ps.apply(op);
-        std::vector<ir::Op> inverse;
-        for (size_t i = al.b.ops.size(); i-- > 0;) ir::append_inverse(al.b.ops[i], inverse);
-        for (const ir::Op& op : inverse) ps.apply(op);
+        for (size_t i = al.b.ops.size(); i-- > 0;) ps.apply_inverse(al.b.ops[i]);
         if (!ps.reduce(std::max(0.0, opts.time_budget_seconds / 2 - dl.elapsed())))
             return inconclusive(name::kPathSum, fmt::format("time budget exhausted with {} path variables left",
                                                             ps.num_path_vars()));

@@ -15,6 +15,7 @@ constexpr double kTolerance = 1e-7;
 constexpr uint32_t kEnumerateWires = 20;
 constexpr int kEnumerateMeasurements = 10;
 constexpr int kSampledBranches = 64;
+constexpr uint32_t kDensityWires = 10;  // density matrices of 2^10 x 2^10
 
 using Vec = Eigen::VectorXcd;
 
@@ -144,12 +145,13 @@ uint64_t discarded_wires(const Aligned& al, const ir::Circuit& c) {
     return mask;
 }
 
-using BranchFn = std::function<bool(const Vec&, const std::string&)>;
+using BranchFn = std::function<bool(const Vec&, const std::string&, double)>;
 
 /// Runs `c` from `s` and calls `done` on every branch with non-zero probability (all of them, or
 /// `sampled` random ones). Returns false when `done` asked to stop.
 bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vector<uint8_t> cbits,
-                  const std::string& path, uint64_t discard, std::mt19937_64& rng, bool enumerate, const BranchFn& done) {
+                  const std::string& path, double prob, uint64_t discard, std::mt19937_64& rng, bool enumerate,
+                  const BranchFn& done) {
     std::string trail = path;
     for (size_t i = from; i < c.ops.size(); ++i) {
         const ir::Op& op = c.ops[i];
@@ -181,8 +183,8 @@ bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vec
                         if (uint64_t(j) & bt) std::swap(v(j), v(Eigen::Index(uint64_t(j) ^ bt)));
                 step = fmt::format("reset {} (was {})", c.wire_name(op.target), outcome);
             }
-            if (!run_branches(c, i + 1, std::move(t), std::move(bits), trail + (trail.empty() ? "" : ", ") + step, discard,
-                              rng, enumerate, done))
+            if (!run_branches(c, i + 1, std::move(t), std::move(bits), trail + (trail.empty() ? "" : ", ") + step,
+                              prob * p, discard, rng, enumerate, done))
                 return false;
         }
         return true;
@@ -198,7 +200,22 @@ bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vec
                 v(j) = 0;
             }
     }
-    return done(v, trail);
+    return done(v, trail, prob);
+}
+
+/// Every branch of `c` from `input` (all of them when `enumerate`, else kSampledBranches random ones).
+bool for_each_branch(const Aligned& al, const ir::Circuit& c, const Vec& input, bool enumerate, std::mt19937_64& rng,
+                     const BranchFn& fn) {
+    const uint64_t discard = discarded_wires(al, c);
+    const int runs = enumerate || !nonunitary(c) ? 1 : kSampledBranches;
+    for (int r = 0; r < runs; ++r) {
+        ir::StateVector start(al.num_wires());
+        start.amplitudes() = input;
+        if (!run_branches(c, 0, std::move(start), std::vector<uint8_t>(c.num_cbits, 0), "", 1.0 / runs, discard, rng,
+                          enumerate, fn))
+            return false;
+    }
+    return true;
 }
 
 EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline& dl) {
@@ -206,48 +223,60 @@ EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline
                            count_measurements(al.b) <= kEnumerateMeasurements;
     std::mt19937_64 rng = rng_for(opts);
     size_t total = 0;
+    bool used_density = false;
     for (int s = 0; s < opts.random_states; ++s) {
+        if (dl.expired()) return inconclusive(name::kBranches, "time budget exhausted");
         const Vec input = random_input(al, rng);
-        bool have_ref = false, timed_out = false;
+        // Deterministic reference: every branch of the first circuit gives one state (up to phase).
         Vec ref;
-        std::string failure;
-        auto check = [&](const char* which, const Vec& out, const std::string& path) {
-            if (dl.expired()) {
-                timed_out = true;
-                return false;
-            }
+        bool have_ref = false, deterministic = true;
+        for_each_branch(al, al.a, input, enumerate, rng, [&](const Vec& out, const std::string&, double) {
             ++total;
             if (!have_ref) {
-                have_ref = true;
                 ref = out;
+                have_ref = true;
                 return true;
             }
-            const double d = (out - phase_between(out, ref) * ref).norm();
-            if (d <= kTolerance) return true;
-            failure = fmt::format("random input state {}: the {} circuit's branch [{}] gives a different state "
-                                  "(distance {:.3g})",
-                                  s + 1, which, path.empty() ? "no measurement" : path, d);
-            return false;
-        };
-        for (int side = 0; side < 2 && failure.empty() && !timed_out; ++side) {
-            const ir::Circuit& c = side == 0 ? al.a : al.b;
-            const char* which = side == 0 ? "first" : "second";
-            const uint64_t discard = discarded_wires(al, c);
-            const int runs = enumerate || !nonunitary(c) ? 1 : kSampledBranches;
-            for (int r = 0; r < runs && failure.empty() && !timed_out; ++r) {
-                ir::StateVector start(al.num_wires());
-                start.amplitudes() = input;
-                run_branches(c, 0, std::move(start), std::vector<uint8_t>(c.num_cbits, 0), "", discard, rng, enumerate,
-                             [&](const Vec& out, const std::string& path) { return check(which, out, path); });
-            }
+            deterministic = (out - phase_between(out, ref) * ref).norm() <= kTolerance;
+            return deterministic;
+        });
+        if (deterministic) {
+            std::string failure;
+            for_each_branch(al, al.b, input, enumerate, rng, [&](const Vec& out, const std::string& path, double) {
+                ++total;
+                const double d = (out - phase_between(out, ref) * ref).norm();
+                if (d <= kTolerance) return true;
+                failure = fmt::format("random input state {}: the second circuit's branch [{}] gives another state "
+                                      "than the first circuit (distance {:.3g})",
+                                      s + 1, path.empty() ? "no measurement" : path, d);
+                return false;
+            });
+            if (!failure.empty())
+                return not_equivalent(name::kBranches, "numerical (a measurement branch gives another state)", failure);
+            continue;
         }
-        if (timed_out) return inconclusive(name::kBranches, "time budget exhausted");
-        if (!failure.empty())
-            return not_equivalent(name::kBranches, "numerical (a measurement branch gives another state)", failure);
+        // The first circuit's outcome decides its output state: compare the output mixtures instead.
+        if (!enumerate || al.num_wires() > kDensityWires)
+            return inconclusive(name::kBranches, "the first circuit's measurement outcomes lead to different states, "
+                                                 "and the circuits are too wide to compare output mixtures");
+        used_density = true;
+        Eigen::MatrixXcd rho[2];
+        for (int side = 0; side < 2; ++side) {
+            rho[side] = Eigen::MatrixXcd::Zero(input.size(), input.size());
+            for_each_branch(al, side == 0 ? al.a : al.b, input, true, rng, [&](const Vec& out, const std::string&, double p) {
+                ++total;
+                rho[side] += p * out * out.adjoint();
+                return true;
+            });
+        }
+        const double d = (rho[0] - rho[1]).norm();
+        if (d > kTolerance)
+            return not_equivalent(name::kBranches, "numerical (the output mixtures differ)",
+                                  fmt::format("random input state {}: the output density matrices differ by {:.3g}", s + 1, d));
     }
-    const std::string conf =
-        fmt::format("probabilistic ({} random input states; {} {} branches agree within {:g})", opts.random_states, total,
-                    enumerate ? "enumerated" : "sampled", kTolerance);
+    const std::string conf = fmt::format("probabilistic ({} random input states; {} {} branches agree within {:g}{})",
+                                         opts.random_states, total, enumerate ? "enumerated" : "sampled", kTolerance,
+                                         used_density ? ", as output mixtures where outcomes matter" : "");
     if (!opts.allow_probabilistic) return inconclusive(name::kBranches, conf + "; probabilistic answers not allowed");
     return equivalent(name::kBranches, conf);
 }

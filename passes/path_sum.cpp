@@ -183,6 +183,29 @@ void PathSum::apply(const ir::Op& op) {
     WHITTLE_ASSERT(false && "unreachable: unsupported op in a path sum");
 }
 
+void PathSum::apply_inverse(const ir::Op& op) {
+    WHITTLE_ASSERT(supports(op) && "PathSum::apply_inverse on an unsupported op");
+    if (op.kind == ir::OpKind::RZ) {
+        // RZ(a)^dagger = e^{+i a/2} e^{-i a [t]} where the controls hold
+        const Anf on = control_product(op);
+        phase_.add_indicator(op.angles[0].divided_by(2), on);
+        phase_.add_indicator(-op.angles[0], on & out_[op.target]);
+        return;
+    }
+    if (op.kind == ir::OpKind::ISwap) {
+        // (SWAP CZ (S (x) S))^dagger = (S^dagger (x) S^dagger) CZ SWAP
+        std::swap(out_[op.target], out_[op.target2]);
+        phase_.add_indicator(kPi, out_[op.target] & out_[op.target2]);
+        phase_.add_indicator(-kHalfPi, out_[op.target]);
+        phase_.add_indicator(-kHalfPi, out_[op.target2]);
+        return;
+    }
+    // Every other kind inverts exactly, or (uncontrolled rotations) up to a global phase.
+    std::vector<ir::Op> inverse;
+    ir::append_inverse(op, inverse);
+    for (const ir::Op& o : inverse) apply(o);
+}
+
 bool PathSum::apply_rule(bool& progressed) {
     const size_t nv = live_.size();
     std::vector<uint32_t> in_outputs(nv, 0);

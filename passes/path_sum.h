@@ -24,6 +24,10 @@ public:
     static bool supports(const ir::Op& op);
     /// Appends an op (supports(op) must hold). Throws AnfOverflow when a polynomial grows over its cap.
     void apply(const ir::Op& op);
+    /// Appends the exact inverse of an op (supports(op) must hold). Not ir::append_inverse for two
+    /// kinds: angles are stored mod 2*pi, so a controlled RZ(-a) as stored can differ from RZ(a)^dagger
+    /// by a phase on the controls; and iSWAP's inverse is written out here.
+    void apply_inverse(const ir::Op& op);
     void add_global_phase(const ir::Angle& a) { phase_.add({}, a); }
 
     /// Applies the rewrite rules until none applies: [Elim] (a path variable in no output and not in

@@ -1,19 +1,45 @@
 // Phase folding over Boolean polynomials: simulate polynomials, collect terms, group by polynomial, re-emit.
 #include "passes/phase_folding.h"
 
+#include <optional>
 #include <unordered_map>
 
-#include "ir/anf.h"
+#include "passes/anf.h"
 
 namespace whittle::passes {
 
-using ir::Anf;
 using ir::Angle;
 using ir::Lit;
 using ir::Op;
 using ir::OpKind;
 
 namespace {
+
+struct AnfHash {
+    size_t operator()(const Anf& a) const {
+        size_t h = 0x9e3779b97f4a7c15ull ^ a.size();
+        for (const Monomial& m : a.terms()) {
+            size_t hm = m.size() * 0x100000001b3ull;
+            for (Var v : m) hm = (hm ^ v) * 0x100000001b3ull;
+            h = (h ^ hm) * 0xff51afd7ed558ccdull;
+        }
+        return h;
+    }
+};
+
+bool has_constant(const Anf& f) { return !f.terms().empty() && f.terms().front().empty(); }
+
+/// The product, or nothing when it would pass `cap` monomials (the size cap that keeps folding linear).
+std::optional<Anf> times(const Anf& a, const Anf& b, size_t cap) {
+    if (a.size() * b.size() > cap * cap) return std::nullopt;
+    try {
+        Anf r = a & b;
+        if (r.size() > cap) return std::nullopt;
+        return r;
+    } catch (const AnfOverflow&) {
+        return std::nullopt;
+    }
+}
 
 /// e^{i (alpha * f + extra)} with f = key ^ constant, located at op `op` (subset 0: the op itself;
 /// otherwise the parity over the op's literals in that bit mask).
@@ -33,7 +59,7 @@ Term make_term(uint32_t op, uint32_t subset, const Anf& f, Angle alpha, Angle ex
     Term t;
     t.op = op;
     t.subset = subset;
-    t.constant = f.has_constant();
+    t.constant = has_constant(f);
     t.key = t.constant ? f.negated() : f;
     t.alpha = alpha;
     t.extra = extra;
@@ -54,7 +80,7 @@ struct Plan {
     bool merges = false;
 
     void build() {
-        std::unordered_map<Anf, uint32_t, ir::AnfHash> index;
+        std::unordered_map<Anf, uint32_t, AnfHash> index;
         group_of.assign(terms.size(), 0);
         for (size_t i = 0; i < terms.size(); ++i) {
             auto [it, fresh] = index.emplace(terms[i].key, uint32_t(groups.size()));
@@ -131,7 +157,7 @@ private:
         case OpKind::X: {
             Anf prod = Anf::one();
             for (Lit l : op.controls) {
-                auto p = prod.times(literal(l), s_.max_terms);
+                auto p = times(prod, literal(l), s_.max_terms);
                 if (!p) {
                     fresh(op.target);
                     return;
@@ -154,7 +180,7 @@ private:
             if (op.pair != 0) return;
             Anf prod = Anf::one();
             for (Lit l : op.controls) {
-                auto p = prod.times(literal(l), s_.max_terms);
+                auto p = times(prod, literal(l), s_.max_terms);
                 if (!p) return;  // too big to compare: not a term
                 prod = std::move(*p);
             }
@@ -226,7 +252,7 @@ private:
     /// Expands the products some of whose parities occur elsewhere (another term, or another
     /// product's expansion).
     Plan expansion_plan() {
-        std::unordered_map<Anf, uint32_t, ir::AnfHash> sources;
+        std::unordered_map<Anf, uint32_t, AnfHash> sources;
         for (size_t i = 0; i < c_.ops.size(); ++i) {
             if (!has_term_[i]) continue;
             auto sub = subterms_.find(uint32_t(i));
@@ -234,7 +260,7 @@ private:
                 ++sources[real_[i].key];
                 continue;
             }
-            std::unordered_map<Anf, bool, ir::AnfHash> own;
+            std::unordered_map<Anf, bool, AnfHash> own;
             for (const Term& t : sub->second) own.emplace(t.key, true);
             for (const auto& [key, unused] : own) ++sources[key];
         }

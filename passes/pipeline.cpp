@@ -26,24 +26,34 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     }
     if (level >= 2) {
         // merge-controls after cancel: cancellation can leave op(C&x), op(C&!x) side by side.
-        // A second cancel picks up what the merges exposed (a merged op can meet its inverse).
-        add({"merge-controls", "cancel"});
+        // fold-phases next, on the fewest and largest ops (a merged control is one term, not two);
+        // it runs before lowering, while AND terms are still visible as products. The last cancel
+        // picks up inverse pairs the merges and folds exposed.
+        add({"merge-controls", "fold-phases", "cancel"});
     }
     if (level >= 3) {
-        // -O3 repeats the merge/cancel round: merges expose cancellations and vice versa.
-        add({"merge-controls", "cancel"});
+        // -O3 repeats the round: merges expose cancellations and foldings, and vice versa.
+        add({"merge-controls", "fold-phases", "cancel"});
     }
     if (opts.target.empty()) return p;
-    // Lowering (owned by the lowering branch): pairs and free wires are found on the
+    // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
     // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
-    // Clifford+T (nct keeps them), then the target's gates and its own cleanup.
-    p.insert(p.end(), {"pair-uncompute", "plan-ancillas", "lower-controls"});
-    if (opts.target != "nct") p.push_back("lower-toffoli");
-    p.insert(p.end(), {"to-target", "fuse-1q"});
-    if (opts.target != "nct" && opts.target != "clifford+t") p.insert(p.end(), {"resynth-2q", "fuse-1q"});
-    // -O2 on the lowered circuit: rotation merging over parities (phase folding), then the
-    // inverse pairs it exposes. (Merge of main and lowering made on the arith branch.)
-    if (level >= 2 && opts.target != "nct") add({"fold-rotations", "gate-cancel"});
+    // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
+    // and KAK resynthesis of two-qubit blocks on the rotation targets).
+    add({"pair-uncompute", "plan-ancillas", "lower-controls"});
+    if (opts.target != "nct") add({"lower-toffoli"});
+    if (level >= 1) {
+        // Low level, still in H / CNOT / phase form (before to-target turns H into the target's
+        // axes and hides the path variables). gate-cancel first removes the H pairs between
+        // Toffolis on one target (the Clifford+T forms end and start with H on it), so
+        // fold-rotations sees one path variable where there were two; it then merges rotations
+        // on equal parities (the control-only terms of a Toffoli and of its uncompute). A last
+        // gate-cancel removes the pairs the merges left.
+        add({"gate-cancel", "fold-rotations", "gate-cancel"});
+        if (level >= 3) add({"fold-rotations", "gate-cancel"});
+    }
+    add({"to-target", "fuse-1q"});
+    if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
     return p;
 }
 

@@ -17,6 +17,11 @@
 #include "lowering/emit_qasm.h"
 #include "lowering/report.h"
 #include "passes/pipeline.h"
+// whittle.equiv is bound when the equivalence checker is part of the library.
+#if __has_include("passes/equivalence.h")
+#include "passes/equivalence.h"
+#define WHITTLE_PY_HAS_EQUIV 1
+#endif
 
 namespace py = pybind11;
 using namespace whittle;
@@ -113,7 +118,7 @@ PyCircuit compile(const PyCircuit& in, const std::string& target, int level, boo
     return out;
 }
 
-py::object to_python(const nlohmann::json& j) { return py::module_::import("json").attr("loads")(j.dump()); }
+py::object to_python(const lowering::Json& j) { return py::module_::import("json").attr("loads")(j.dump()); }
 
 py::object count(const PyCircuit& pc) {
     if (!pc.compiled) return to_python(lowering::count_json(pc.circuit, pc.name));
@@ -126,6 +131,27 @@ py::object count(const PyCircuit& pc) {
     ri.records = pc.records;
     return to_python(lowering::compile_report(ri));
 }
+
+#ifdef WHITTLE_PY_HAS_EQUIV
+py::dict equiv(const PyCircuit& a, const PyCircuit& b, double time_budget, bool probabilistic, uint64_t seed) {
+    passes::EquivOptions o;
+    o.time_budget_seconds = time_budget;
+    o.allow_probabilistic = probabilistic;
+    o.seed = seed;
+    passes::EquivResult r = located(*a.sources, [&] {
+        py::gil_scoped_release release;
+        return passes::check_equivalence(a.circuit, b.circuit, o);
+    });
+    py::dict d;
+    d["equivalent"] = r.verdict == passes::Verdict::Equivalent;
+    d["verdict"] = passes::verdict_name(r.verdict);
+    d["engine"] = r.engine;
+    d["confidence"] = r.confidence;
+    d["counterexample"] = r.counterexample;
+    d["detail"] = r.detail;
+    return d;
+}
+#endif
 
 }  // namespace
 
@@ -179,5 +205,11 @@ PYBIND11_MODULE(whittle, m) {
           py::arg("include") = std::vector<std::string>{},
           "read a program: a path to a .wq/.qasm file, or program text (when it has a newline or names no "
           "file); format='wq' or 'qasm' overrides the extension (text defaults to 'wq')");
+#ifdef WHITTLE_PY_HAS_EQUIV
+    m.def("equiv", &equiv, py::arg("a"), py::arg("b"), py::arg("time_budget") = 10.0, py::arg("probabilistic") = true,
+          py::arg("seed") = 1,
+          "are two circuits equivalent up to global phase? A dict: equivalent (bool), verdict ('equivalent', "
+          "'not equivalent', 'inconclusive'), engine, confidence, counterexample, detail");
+#endif
     m.attr("__version__") = "0.1.0";
 }

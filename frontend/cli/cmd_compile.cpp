@@ -7,6 +7,7 @@
 #include "frontend/cli/commands.h"
 #include "frontend/cli/driver.h"
 #include "frontend/cli/progress.h"
+#include "frontend/cli/verify_hook.h"
 #include "frontend/load.h"
 #include "ir/printer.h"
 #include "lowering/emit_qasm.h"
@@ -81,9 +82,17 @@ int run_compile(const CompileArgs& a) {
         // The input as read, kept for the report's "input_resources" only when a report is asked for.
         ir::Circuit source;
         if (!a.report.empty()) source = c;
+        if (a.verify) hooks.verify = PassVerifier(verify_folder_for(a.output), passes::EquivOptions{});
         ProgressLine progress(!a.quiet);
         hooks.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
-        std::vector<passes::PassRecord> records = passes::run_passes(c, names, po, hooks);
+        std::vector<passes::PassRecord> records;
+        try {
+            records = passes::run_passes(c, names, po, hooks);
+        } catch (const VerifyFailure& failure) {
+            progress.finish();
+            std::cerr << failure.what();
+            return kCheckFailed;
+        }
         progress.finish();
         if (a.stats || a.time_passes) {
             for (const passes::PassRecord& r : records) {

@@ -93,6 +93,7 @@ private:
         case Tok::Real:
             n.kind = K::Num;
             n.num = Value::parse_literal(t.text);
+            if (!n.num.is_finite()) throw UserError(fmt::format("number {} is too large", t.text), t.loc);
             return add(n);
         case Tok::LParen: {
             uint32_t inner = expr();

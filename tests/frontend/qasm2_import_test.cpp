@@ -346,6 +346,8 @@ TEST_CASE("bad inputs give located errors") {
         {std::string(kHead) + "qreg q[1];\nrz((pi q[0];\n", "4:8: expected ')' to close the '(' at 4:4"},
         {std::string(kHead) + "qreg q[1];\n/* never closed\n", "4:1: comment is not closed"},
         {std::string(kHead) + "qreg q[99999999999999999999];\n", "3:8: integer 99999999999999999999 is too large"},
+        {std::string(kHead) + "qreg q[1];\nrz(2*1e309) q[0];\n", "4:6: number 1e309 is too large"},
+        {std::string(kHead) + "qreg q[1];\nrz(exp(1000)) q[0];\n", "4:4: expression value is not a finite number"},
     };
     for (const auto& [text, expected] : cases) {
         std::string got = error_of(text);

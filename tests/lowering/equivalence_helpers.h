@@ -67,14 +67,21 @@ inline ir::LitVec positive_lits(uint32_t first, uint32_t count) {
     return l;
 }
 
-/// A random high-level circuit over `data` wires: MCX with mixed polarities, multi-controlled
-/// phases, controlled one-qubit gates, controlled swaps, parities, Toffolis, plain one- and
-/// two-qubit gates. Angles are multiples of pi/4 when `exact_pi4`, else arbitrary.
-inline ir::Circuit random_high_level(std::mt19937_64& rng, uint32_t data, uint32_t clean, size_t ops, bool exact_pi4) {
+/// What random_high_level draws from.
+enum class RandomMode { Rotations, CliffordT, Classical };
+
+/// A random high-level circuit over `data` data wires and `clean` clean wires (the clean wires are
+/// only used as controls or targets of X-type ops that the circuit later undoes, so they end at
+/// |0>): MCX with mixed polarities, multi-controlled phases, controlled one-qubit gates,
+/// controlled swaps, parities and native two-qubit gates. CliffordT mode keeps every angle that
+/// the lowering halves at pi (MC-Z) or pi/2 (CS) and rotations at multiples of pi/4; Classical
+/// mode draws X-type ops only.
+inline ir::Circuit random_high_level(std::mt19937_64& rng, uint32_t data, uint32_t clean, size_t ops, RandomMode mode) {
     ir::Circuit c = wires(data, clean);
-    std::uniform_int_distribution<uint32_t> wire(0, data - 1), kind(0, 12), eighth(1, 7);
+    std::uniform_int_distribution<uint32_t> wire(0, data - 1), eighth(1, 7);
     std::uniform_real_distribution<double> real(-3.1, 3.1);
-    auto angle = [&] { return exact_pi4 ? ir::Angle::pi_times(eighth(rng), 4) : ir::Angle::radians(real(rng)); };
+    const bool exact = mode != RandomMode::Rotations;
+    auto angle = [&] { return exact ? ir::Angle::pi_times(eighth(rng), 4) : ir::Angle::radians(real(rng)); };
     auto distinct = [&](size_t n) {
         std::vector<uint32_t> w;
         while (w.size() < n) {
@@ -90,17 +97,37 @@ inline ir::Circuit random_high_level(std::mt19937_64& rng, uint32_t data, uint32
     };
     const ir::OpKind one_kinds[] = {ir::OpKind::H, ir::OpKind::Y, ir::OpKind::SX, ir::OpKind::RX,
                                     ir::OpKind::RY, ir::OpKind::RZ, ir::OpKind::U};
+    const uint32_t kinds = mode == RandomMode::Classical ? 3 : 13;
     for (size_t i = 0; i < ops; ++i) {
-        const uint32_t k = kind(rng);
+        const uint32_t k = uint32_t(rng() % kinds);
         const size_t nc = std::min<size_t>(data - 1, 1 + rng() % 4);
         std::vector<uint32_t> w = distinct(nc + 1);
         switch (k) {
-        case 0:
-        case 1: c.ops.push_back(ir::Op::x(w[0], lits(w, 1))); break;
-        case 2: c.ops.push_back(ir::Op::phase(angle(), lits(w, 0))); break;
+        case 0: c.ops.push_back(ir::Op::x(w[0], lits(w, 1))); break;
+        case 1:
+            if (w.size() >= 3) c.ops.push_back(ir::Op::swap(w[0], w[1], lits(w, 2)));
+            else c.ops.push_back(ir::Op::swap(w[0], w[1]));
+            break;
+        case 2:
+            if (clean) {
+                // Compute into a clean wire, use it, uncompute.
+                const uint32_t a = data + uint32_t(rng() % clean);
+                ir::Op comp = ir::Op::x(a, w.size() > 1 ? lits(w, 1) : ir::LitVec{});
+                c.ops.push_back(comp);
+                c.ops.push_back(ir::Op::x(w[0], {ir::Lit::pos(a)}));
+                c.ops.push_back(comp);
+            } else {
+                c.ops.push_back(ir::Op::x(w[0]));
+            }
+            break;
         case 3: c.ops.push_back(ir::Op::phase(ir::Angle::pi_times(1), lits(w, 0))); break;
-        case 4: {
-            ir::Op op = ir::Op::one(one_kinds[rng() % 7], w[0], angle(), lits(w, 1));
+        case 4:
+            if (exact) c.ops.push_back(ir::Op::phase(ir::Angle::pi_times(1, 2), lits(distinct(2), 0)));
+            else c.ops.push_back(ir::Op::phase(angle(), lits(w, 0)));
+            break;
+        case 5: {
+            const ir::OpKind kk = exact ? (rng() & 1 ? ir::OpKind::H : ir::OpKind::Y) : one_kinds[rng() % 7];
+            ir::Op op = ir::Op::one(kk, w[0], angle(), lits(w, 1));
             if (op.kind == ir::OpKind::U) {
                 op.angles[1] = angle();
                 op.angles[2] = angle();
@@ -108,15 +135,18 @@ inline ir::Circuit random_high_level(std::mt19937_64& rng, uint32_t data, uint32
             c.ops.push_back(op);
             break;
         }
-        case 5:
-            if (w.size() >= 3) c.ops.push_back(ir::Op::swap(w[0], w[1], lits(w, 2)));
-            break;
         case 6: c.ops.push_back(ir::Op::parity(angle(), w)); break;
-        case 7: c.ops.push_back(ir::Op::one(ir::OpKind::H, w[0])); break;
-        case 8: c.ops.push_back(ir::Op::phase(angle(), {ir::Lit::pos(w[0])})); break;
-        case 9:
-            if (w.size() >= 3) c.ops.push_back(ir::Op::x(w[0], {ir::Lit::make(w[1], rng() & 1), ir::Lit::pos(w[2])}));
+        case 7: {
+            ir::Op op = ir::Op::one(one_kinds[rng() % 7], w[0], angle());
+            if (op.kind == ir::OpKind::U) {
+                op.angles[1] = angle();
+                op.angles[2] = angle();
+            }
+            c.ops.push_back(op);
             break;
+        }
+        case 8: c.ops.push_back(ir::Op::phase(angle(), {ir::Lit::make(w[0], rng() & 1)})); break;
+        case 9: c.ops.push_back(ir::Op::one(ir::OpKind::R, w[0], angle())); c.ops.back().angles[1] = angle(); break;
         case 10: c.ops.push_back(ir::Op::swap(w[0], w[1])); break;
         case 11: c.ops.push_back(ir::Op::two(ir::OpKind::ISwap, w[0], w[1])); break;
         default: c.ops.push_back(ir::Op::two(ir::OpKind::XX, w[0], w[1], angle())); break;

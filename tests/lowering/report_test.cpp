@@ -12,7 +12,7 @@ using namespace whittle;
 TEST_CASE("count json of the textbook Toffoli has the book's counts") {
     // Nielsen & Chuang Fig. 4.9 (memory): 7 T/T-dagger, 6 CNOT, 2 H, 15 gates.
     ir::Circuit c = testing::textbook_toffoli();
-    nlohmann::json j = lowering::count_json(c, "toffoli.wq");
+    lowering::Json j = lowering::count_json(c, "toffoli.wq");
     CHECK(j["schema"] == lowering::kReportSchema);
     CHECK(j["input"] == "toffoli.wq");
     CHECK(j["qubits"] == 3);
@@ -30,7 +30,7 @@ TEST_CASE("count json of the textbook Toffoli has the book's counts") {
 
 TEST_CASE("roles are counted by kind of wire") {
     ir::Circuit c = testing::crane_check();
-    nlohmann::json j = lowering::count_json(c, "crane.wq");
+    lowering::Json j = lowering::count_json(c, "crane.wq");
     CHECK(j["qubits"] == 8);  // crane[3], berth[2], flag, w[1], d
     CHECK(j["qubits_by_role"]["data"] == 6);
     CHECK(j["qubits_by_role"]["ancilla"] == 1);
@@ -64,7 +64,7 @@ TEST_CASE("compile report carries options, passes, constructions and the error t
     passes::PassRecord b2 = b;
     b2.result.error_bound = 2e-10;
     in.records = {a, b, b2};
-    nlohmann::json j = lowering::compile_report(in);
+    lowering::Json j = lowering::compile_report(in);
     CHECK(j["target"] == "clifford+t");
     CHECK(j["level"] == 3);
     CHECK(j["options"]["optimize_for"] == "2q");
@@ -90,7 +90,7 @@ TEST_CASE("no approximation means an error bound of exactly 0") {
     lowering::CompileReportInput in;
     in.source = &c;
     in.output = &c;
-    nlohmann::json j = lowering::compile_report(in);
+    lowering::Json j = lowering::compile_report(in);
     CHECK(j["approximation_error_bound"].get<double>() == 0.0);
     CHECK(j["target"].is_null());
     CHECK(j["passes"].empty());

@@ -6,6 +6,14 @@ import subprocess
 import sys
 import tempfile
 
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from build_config import is_on  # noqa: E402
+
+if is_on("WHITTLE_SANITIZE"):
+    # The sanitized static library needs the sanitizer runtime linked into every consumer.
+    print("skipped: a WHITTLE_SANITIZE build is not installed for consumers")
+    sys.exit(77)
+
 bin_path = os.environ["WHITTLE_BIN"]
 source = os.environ["WHITTLE_SOURCE_DIR"]
 build = os.path.dirname(os.path.abspath(bin_path))

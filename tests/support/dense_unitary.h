@@ -25,7 +25,7 @@ using Cplx = std::complex<double>;
 using Mat = Eigen::MatrixXcd;
 using Mat2 = Eigen::Matrix2cd;
 
-inline Mat2 one_qubit_matrix(const ir::Op& op) {
+inline Mat2 reference_one_qubit_matrix(const ir::Op& op) {
     const Cplx i(0, 1);
     const double t = op.angles[0].to_radians();
     const double c = std::cos(t / 2), s = std::sin(t / 2);
@@ -106,7 +106,7 @@ inline void apply_op(const ir::Op& op, Eigen::VectorXcd& v) {
         return;
     }
     default: {
-        const Mat2 m = one_qubit_matrix(op);
+        const Mat2 m = reference_one_qubit_matrix(op);
         const size_t tb = size_t(1) << op.target;
         for (size_t k = 0; k < dim; ++k) {
             if ((k & tb) || !lits_hold(k)) continue;

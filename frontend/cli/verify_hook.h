@@ -1,0 +1,36 @@
+// `compile --verify`: the per-pass equivalence check (translation validation) and its failure files.
+#pragma once
+
+#include <stdexcept>
+#include <string>
+
+#include "ir/circuit.h"
+#include "passes/equivalence.h"
+
+namespace whittle::cli {
+
+/// A pass produced a circuit that is not equivalent to its input. The message names the pass,
+/// the counterexample and the files written.
+class VerifyFailure : public std::runtime_error {
+public:
+    using std::runtime_error::runtime_error;
+};
+
+/// Checks each pass's output against its input (PipelineHooks::verify). On a difference writes
+/// whittle-verify-<pass>-before.wq, -after.wq and -counterexample.txt into `folder` and throws
+/// VerifyFailure; an undecided check prints a warning and is recorded as "inconclusive".
+class PassVerifier {
+public:
+    PassVerifier(std::string folder, passes::EquivOptions opts) : folder_(std::move(folder)), opts_(opts) {}
+    /// Returns the engine that decided, for PassRecord::checked_by.
+    std::string operator()(const std::string& pass, const ir::Circuit& before, const ir::Circuit& after) const;
+
+private:
+    std::string folder_;
+    passes::EquivOptions opts_;
+};
+
+/// The folder failure files go to: the output's folder, or the current one for stdout.
+std::string verify_folder_for(const std::string& output);
+
+}  // namespace whittle::cli

@@ -1,0 +1,15 @@
+OPENQASM 2.0;
+include "qelib1.inc";
+qreg a[2];
+qreg b[2];
+qreg c[1];
+cx a[0],b[0];
+ccx a[0],b[0],c[0];
+cx a[1],b[1];
+h c[0];
+t c[0];
+tdg b[1];
+u3(pi/2,0,pi/4) a[1];
+cu1(pi/8) a[0],b[1];
+rz(0.3) b[0];
+swap a[0],b[1];

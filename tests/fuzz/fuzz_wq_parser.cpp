@@ -1,0 +1,15 @@
+// libFuzzer target: the .wq parser and elaborator never crash; bad input is a located UserError.
+#include "ir/error.h"
+#include "tests/fuzz/fuzz_input.h"
+
+extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
+    using namespace whittle;
+    frontend::SourceManager sm;
+    try {
+        ir::Circuit c = frontend::load_text(fuzz::as_text(data, size), "fuzz.wq", frontend::InputFormat::Wq, sm,
+                                            fuzz::fuzz_load_options());
+        ir::verify(c);  // an InternalError escapes and counts as a finding
+    } catch (const UserError&) {
+    }
+    return 0;
+}

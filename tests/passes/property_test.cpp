@@ -1,0 +1,207 @@
+// Property tests on random circuits: the checker's engines agree with an independent dense
+// reference, and every registered pass and pipeline preserves equivalence.
+#include <doctest/doctest.h>
+
+#include <random>
+
+#include <fmt/format.h>
+
+#include "ir/error.h"
+#include "ir/printer.h"
+#include "passes/equiv_engines.h"
+#include "passes/equivalence.h"
+#include "passes/path_sum.h"
+#include "passes/pipeline.h"
+#include "passes/registry.h"
+#include "support/dense_unitary.h"
+#include "support/random_circuit.h"
+
+#ifndef WHITTLE_PROPERTY_ROUNDS
+#define WHITTLE_PROPERTY_ROUNDS 300  // the long target (label `long`) builds this file with 10^4
+#endif
+
+using namespace whittle;
+using passes::Verdict;
+
+namespace {
+
+constexpr int kRounds = WHITTLE_PROPERTY_ROUNDS;
+
+/// Which ops a generated circuit keeps, to land in each engine's class.
+enum class OpClass { Classical, Diagonal, PathSum, General };
+
+bool keep(const ir::Op& op, OpClass cls) {
+    switch (cls) {
+    case OpClass::Classical: return op.is_xtype() || op.kind == ir::OpKind::Barrier;
+    case OpClass::Diagonal:
+        return (op.is_xtype() || op.kind == ir::OpKind::Barrier || op.kind == ir::OpKind::Phase ||
+                op.kind == ir::OpKind::Parity || op.kind == ir::OpKind::RZ || op.kind == ir::OpKind::Y) &&
+               passes::PathSum::supports(op);
+    case OpClass::PathSum: return passes::PathSum::supports(op);
+    case OpClass::General: return true;
+    }
+    return true;
+}
+
+ir::Circuit random_in_class(std::mt19937_64& rng, OpClass cls) {
+    test::RandomCircuitOptions o;
+    o.max_registers = 3;
+    o.max_register_size = 3;
+    o.max_ops = 24;
+    o.measurement = false;
+    o.inexact_angles = cls == OpClass::General;
+    ir::Circuit c = test::random_circuit(rng, o);
+    std::vector<ir::Op> kept;
+    for (const ir::Op& op : c.ops)
+        if (keep(op, cls)) kept.push_back(op);
+    c.ops = std::move(kept);
+    return c;
+}
+
+/// A variant of `a`: an op and its inverse inserted (equivalent), an op dropped, or an op replaced
+/// by one from another random circuit of the same class (usually not equivalent).
+ir::Circuit mutate(const ir::Circuit& a, std::mt19937_64& rng, OpClass cls) {
+    ir::Circuit b = a;
+    const ir::Circuit donor = random_in_class(rng, cls);
+    std::vector<ir::Op> pool;
+    for (const ir::Op& op : donor.ops) {
+        bool fits = true;
+        for (uint32_t w : op.wires()) fits = fits && w < a.num_qubits();
+        if (fits) pool.push_back(op);
+    }
+    const int choice = std::uniform_int_distribution<int>(0, 3)(rng);
+    auto pos = [&](size_t n) { return std::uniform_int_distribution<size_t>(0, n)(rng); };
+    if (choice == 0 && !pool.empty()) {
+        const ir::Op& op = pool[pos(pool.size() - 1)];
+        std::vector<ir::Op> ins = {op};
+        ir::append_inverse(op, ins);
+        b.ops.insert(b.ops.begin() + std::ptrdiff_t(pos(b.ops.size())), ins.begin(), ins.end());
+    } else if (choice == 1 && !b.ops.empty()) {
+        b.ops.erase(b.ops.begin() + std::ptrdiff_t(pos(b.ops.size() - 1)));
+    } else if (choice == 2 && !b.ops.empty() && !pool.empty()) {
+        b.ops[pos(b.ops.size() - 1)] = pool[pos(pool.size() - 1)];
+    } else {
+        b.global_phase += ir::Angle::pi_times(1, 3);  // equivalent: global phase only
+    }
+    return b;
+}
+
+/// The truth from the independent dense reference: columns of the inputs with every clean wire at
+/// |0> must agree up to one global phase.
+bool dense_equivalent(const ir::Circuit& a, const ir::Circuit& b) {
+    const Eigen::MatrixXcd ua = test::dense_unitary(a), ub = test::dense_unitary(b);
+    std::vector<Eigen::Index> cols;
+    for (Eigen::Index j = 0; j < ua.cols(); ++j) {
+        bool clean_zero = true;
+        for (uint32_t w = 0; w < a.num_qubits(); ++w)
+            if (a.qubits[w].role == ir::Role::Clean && ((j >> w) & 1)) clean_zero = false;
+        if (clean_zero) cols.push_back(j);
+    }
+    Eigen::MatrixXcd ra(ua.rows(), Eigen::Index(cols.size())), rb(ub.rows(), Eigen::Index(cols.size()));
+    for (size_t k = 0; k < cols.size(); ++k) {
+        ra.col(Eigen::Index(k)) = ua.col(cols[k]);
+        rb.col(Eigen::Index(k)) = ub.col(cols[k]);
+    }
+    return test::distance_up_to_phase(ra, rb) < 1e-9;
+}
+
+using Engine = passes::equiv::EngineResult (*)(const passes::equiv::Aligned&, const passes::EquivOptions&,
+                                                const passes::equiv::Deadline&);
+
+}  // namespace
+
+TEST_CASE("every engine agrees with an independent dense reference on random circuits") {
+    const std::pair<const char*, Engine> engines[] = {{"classical", passes::equiv::check_classical},
+                                                      {"phase", passes::equiv::check_phase},
+                                                      {"path-sum", passes::equiv::check_path_sum},
+                                                      {"simulate", passes::equiv::check_simulate}};
+    std::mt19937_64 rng(2026);
+    int decided[4] = {0, 0, 0, 0}, equal_pairs = 0, unequal_pairs = 0;
+    for (int round = 0; round < kRounds; ++round) {
+        const OpClass cls = OpClass(round % 4);
+        const ir::Circuit a = random_in_class(rng, cls), b = mutate(a, rng, cls);
+        const bool truth = dense_equivalent(a, b);
+        (truth ? equal_pairs : unequal_pairs) += 1;
+        const passes::equiv::Aligned al = passes::equiv::align(a, b);
+        passes::EquivOptions opts;
+        for (int e = 0; e < 4; ++e) {
+            const passes::equiv::EngineResult r = engines[e].second(al, opts, passes::equiv::Deadline(10));
+            if (!r || r->verdict == Verdict::Inconclusive) continue;
+            ++decided[e];
+            INFO(fmt::format("round {} engine {}: {} ({}); a:\n{}b:\n{}", round, engines[e].first,
+                             passes::verdict_name(r->verdict), r->confidence, ir::print_wq(a), ir::print_wq(b)));
+            CHECK((r->verdict == Verdict::Equivalent) == truth);
+        }
+        const passes::EquivResult r = passes::check_equivalence(a, b);
+        if (r.verdict != Verdict::Inconclusive) CHECK((r.verdict == Verdict::Equivalent) == truth);
+    }
+    MESSAGE(fmt::format("{} pairs ({} equivalent, {} not); decided by classical {}, phase {}, path-sum {}, simulate {}",
+                        kRounds, equal_pairs, unequal_pairs, decided[0], decided[1], decided[2], decided[3]));
+    for (int d : decided) CHECK(d >= kRounds / 8);  // each engine really ran on its class
+    CHECK(equal_pairs >= kRounds / 8);
+    CHECK(unequal_pairs >= kRounds / 8);
+}
+
+TEST_CASE("every registered pass preserves equivalence on random circuits") {
+    std::mt19937_64 rng(7);
+    const std::vector<std::string> targets = {"", "clifford+t", "nct", "u+cx"};
+    for (const passes::PassInfo& pass : passes::all_passes()) {
+        int checked = 0, inconclusive = 0, refused = 0;
+        for (int round = 0; round < kRounds; ++round) {
+            test::RandomCircuitOptions o;
+            o.max_registers = 3;
+            o.max_register_size = 3;
+            o.measurement = round % 5 == 4;
+            const ir::Circuit before = test::random_circuit(rng, o);
+            ir::Circuit after = before;
+            passes::PassOptions po;
+            po.target = targets[size_t(round) % targets.size()];
+            po.allow_measurement = round % 3 == 0;
+            try {
+                pass.run(after, po);
+            } catch (const UserError&) {
+                ++refused;  // e.g. a lowering that cannot express an op in this target
+                continue;
+            }
+            ir::verify(after);
+            const passes::EquivResult r = passes::check_equivalence(before, after);
+            INFO(fmt::format("pass {} round {} target '{}': {} by {} ({}): {}\nbefore:\n{}after:\n{}", pass.name, round,
+                             po.target, passes::verdict_name(r.verdict), r.engine, r.confidence, r.counterexample,
+                             ir::print_wq(before), ir::print_wq(after)));
+            CHECK(r.verdict != Verdict::NotEquivalent);
+            if (r.verdict == Verdict::Inconclusive) ++inconclusive;
+            ++checked;
+        }
+        MESSAGE(fmt::format("pass {}: {} circuits checked, {} inconclusive, {} refused", pass.name, checked,
+                            inconclusive, refused));
+    }
+}
+
+TEST_CASE("every -O pipeline preserves equivalence on random circuits") {
+    std::mt19937_64 rng(11);
+    const std::vector<std::string> targets = {"", "clifford+t", "nct", "u+cx", "cx+rz+sx"};
+    int checked = 0;
+    for (int round = 0; round < kRounds / 2; ++round) {
+        test::RandomCircuitOptions o;
+        o.max_registers = 3;
+        o.max_register_size = 3;
+        o.measurement = false;
+        const ir::Circuit before = test::random_circuit(rng, o);
+        ir::Circuit after = before;
+        passes::PassOptions po;
+        po.level = round % 4;
+        po.target = targets[size_t(round / 4) % targets.size()];
+        try {
+            passes::run_passes(after, passes::pipeline_for(po), po);
+        } catch (const UserError&) {
+            continue;
+        }
+        const passes::EquivResult r = passes::check_equivalence(before, after);
+        INFO(fmt::format("-O{} target '{}': {} by {}: {}\nbefore:\n{}after:\n{}", po.level, po.target,
+                         passes::verdict_name(r.verdict), r.engine, r.counterexample, ir::print_wq(before),
+                         ir::print_wq(after)));
+        CHECK(r.verdict != Verdict::NotEquivalent);
+        ++checked;
+    }
+    MESSAGE(fmt::format("{} pipeline runs checked", checked));
+}
