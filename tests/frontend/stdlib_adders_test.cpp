@@ -110,6 +110,6 @@ TEST_CASE("stdlib: gate counts of the adders match the constructions") {
             }
         CHECK(ands == 2 * (n - 1));    // n-1 ANDs, each computed and uncomputed
         CHECK(paired == 2 * (n - 1));  // all of them inside compute/uncompute pairs
-        CHECK(g.num_qubits() == 2 * n + (n - 1));
+        CHECK(g.num_qubits() == 2 * n + (2 * n - 3));  // the ANDs and the carry copies
     }
 }

@@ -86,3 +86,27 @@ TEST_CASE("stdlib: under when only the middle of a compute/uncompute pair is con
     // a `when` control may still not be changed inside the lifted compute block
     CHECK_THROWS_AS(load("qubit a, b, t\nwhen a { compute { a ^= b } then { t ^= a } }\n"), whittle::UserError);
 }
+
+TEST_CASE("samples using the library compute what their comments say") {
+    // samples/berth_fit.wq: fits ^= ship_len < berth_len; closed ^= draft == 13
+    whittle::frontend::SourceManager sm;
+    whittle::ir::Circuit berth = whittle::frontend::load_file(std::string(WHITTLE_SOURCE_DIR) + "/samples/berth_fit.wq", sm);
+    std::mt19937_64 rng(13);
+    std::vector<Values> in = random_inputs({{"ship_len", 8}, {"berth_len", 8}, {"draft", 4}, {"fits", 1}, {"closed", 1}}, 512, rng);
+    for (int d = 0; d < 16; ++d) in[size_t(d)]["draft"] = u128(d);  // every draft code at least once
+    std::vector<Values> out = run(berth, in);
+    for (size_t i = 0; i < in.size(); ++i) {
+        CHECK(out[i].at("fits") == (in[i].at("fits") ^ u128(in[i].at("ship_len") < in[i].at("berth_len"))));
+        CHECK(out[i].at("closed") == (in[i].at("closed") ^ u128(in[i].at("draft") == 13)));
+        CHECK(out[i].at("ship_len") == in[i].at("ship_len"));
+    }
+    // samples/bay_load_sum.wq: load += weight mod 256; overload ^= new load > 200
+    whittle::ir::Circuit bay = whittle::frontend::load_file(std::string(WHITTLE_SOURCE_DIR) + "/samples/bay_load_sum.wq", sm);
+    std::vector<Values> bin = all_inputs({{"weight", 8}, {"load", 8}, {"overload", 1}});
+    std::vector<Values> bout = run(bay, bin);
+    for (size_t i = 0; i < bin.size(); ++i) {
+        u128 load = (bin[i].at("load") + bin[i].at("weight")) & 255;
+        REQUIRE(bout[i].at("load") == load);
+        REQUIRE(bout[i].at("overload") == (bin[i].at("overload") ^ u128(load > 200)));
+    }
+}
