@@ -4,7 +4,8 @@
 For each OpenQASM 2.0 file written here, numpy computes the unitary itself from the standard
 header's gate bodies (built from the builtins U and CX only), then compares it, up to global phase,
 with the unitary of `$WHITTLE_BIN compile X.qasm --emit qasm2` (read back with the same header) and
-of `--emit qasm3` (read with textbook matrices for the stdgates.inc names).
+of `--emit qasm3` (read with textbook matrices for the stdgates.inc names), and of the 2.0 export of
+the circuit lowered to each target.
 
 Sources: OpenQASM 2.0 and its header qelib1.inc, Cross, Bishop, Smolin, Gambetta 2017,
 arXiv:1707.03429 (U(theta,phi,lambda) = Rz(phi) Ry(theta) Rz(lambda), CX; the header bodies below
@@ -399,9 +400,25 @@ def header_self_check():
         check(distance_up_to_phase(got, np.asarray(want, dtype=complex)) < 1e-9, "header body of " + call)
 
 
-def compile_with(path, emit):
-    r = subprocess.run([WHITTLE, "compile", path, "--emit", emit], capture_output=True, text=True)
+def compile_with(path, emit, target=None):
+    cmd = [WHITTLE, "compile", path, "--emit", emit] + (["--target", target] if target else [])
+    r = subprocess.run(cmd, capture_output=True, text=True)
     return r.returncode, r.stdout, r.stderr
+
+
+# Targets whose lowering is exact (no rotation approximation): every lowered circuit's OpenQASM 2.0
+# export must read back, in numpy, as the input's unitary.
+EXACT_TARGETS = ["cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx"]
+
+
+def lowered(path, text, targets):
+    ref = unitary(text, 2)
+    for target in targets:
+        code, out, err = compile_with(path, "qasm2", target)
+        check(code == 0, "%s --target %s: exit %d: %s" % (path, target, code, err.strip()))
+        if code == 0:
+            d = distance_up_to_phase(unitary(out, 2), ref)
+            check(d < 1e-8, "%s --target %s: qasm2 output differs by %g" % (path, target, d))
 
 
 def round_trip(path, text, expect_qasm2=True):
@@ -463,6 +480,33 @@ c4x lane[0], lane[1], lane[2], lane[3], alarm[0];
 cu1(pi/4) lane[3], alarm[0];
 """
 
+CLIFFORD_T = """OPENQASM 2.0;
+include "qelib1.inc";
+// Harbor Logistics: a berth-occupancy check in gates that clifford+t takes without approximation
+qreg berth[3];
+qreg flag[1];
+h berth;
+ccx berth[0], berth[1], flag[0];
+cswap flag[0], berth[1], berth[2];
+cz berth[2], berth[0];
+t berth[1]; s flag[0]; cx flag[0], berth[0]; tdg berth[2]; y berth[1];
+ccx berth[2], flag[0], berth[1];
+"""
+
+CLASSICAL = """OPENQASM 2.0;
+include "qelib1.inc";
+// Harbor Logistics: a load counter step, reversible logic only (the nct target)
+qreg load[3];
+qreg carry[2];
+x load[0];
+ccx load[0], load[1], carry[0];
+cx load[0], load[1];
+ccx carry[0], load[2], carry[1];
+cswap carry[1], load[0], load[2];
+swap carry[0], load[1];
+c3x load[0], load[1], load[2], carry[1];
+"""
+
 GATES_1Q = ["x", "y", "z", "h", "s", "sdg", "t", "tdg", "sx", "sxdg"]
 GATES_1P = ["rx", "ry", "rz", "u1", "p"]
 GATES_2Q = ["cx", "cz", "cy", "swap", "ch", "csx"]
@@ -512,6 +556,12 @@ def main():
             with open(path, "w") as f:
                 f.write(text)
             round_trip(path, text, qasm2_ok)
+            lowered(path, text, EXACT_TARGETS)
+        for name, text, target in [("clifford_t.qasm", CLIFFORD_T, "clifford+t"), ("classical.qasm", CLASSICAL, "nct")]:
+            path = os.path.join(tmp, name)
+            with open(path, "w") as f:
+                f.write(text)
+            lowered(path, text, [target])
     print("%d passed, %d failed" % (passed, failed))
     return 1 if failed else 0
 
