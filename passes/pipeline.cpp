@@ -39,7 +39,9 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
     // and KAK resynthesis of two-qubit blocks on the rotation targets).
     add({"pair-uncompute", "plan-ancillas", "lower-controls"});
-    if (opts.target != "nct") add({"lower-toffoli"});
+    // pair-uncompute again: the constructions' own Toffolis (e.g. the two halves of the Lemma 7.3
+    // split) form pairs that lower-toffoli can give relative phases; it checks every middle.
+    if (opts.target != "nct") add({"pair-uncompute", "lower-toffoli"});
     add({"to-target", "fuse-1q"});
     if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
     return p;
