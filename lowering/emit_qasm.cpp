@@ -203,7 +203,13 @@ private:
     /// e^{i*theta*AND(ws)} on positive literals.
     void phase(const Angle& theta, const std::vector<uint32_t>& ws) {
         const bool v2 = d_ == Dialect::V2;
-        if (ws.size() == 1) return gate(v2 ? "u1" : "p", {text(theta)}, ws);
+        if (ws.size() == 1) {
+            // The Clifford+T names where the angle is one of them (the clifford+t target's gates).
+            static const char* const named[8] = {nullptr, "t", "s", nullptr, "z", nullptr, "sdg", "tdg"};
+            const int e = theta.eighths();
+            if (e > 0 && named[e]) return gate(named[e], {}, ws);
+            return gate(v2 ? "u1" : "p", {text(theta)}, ws);
+        }
         if (ws.size() == 2) return gate(v2 ? "cu1" : "cp", {text(theta)}, ws);
         if (!v2) return ctrl_gate("p", {text(theta)}, {ws.begin(), ws.end() - 1}, {ws.back()});
         if (ws.size() > 3) refuse(fmt::format("a phase on a product of {} wires", ws.size()));

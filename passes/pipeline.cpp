@@ -41,7 +41,9 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
     // and KAK resynthesis of two-qubit blocks on the rotation targets).
     add({"pair-uncompute", "plan-ancillas", "lower-controls"});
-    if (opts.target != "nct") add({"lower-toffoli"});
+    // pair-uncompute again: the constructions' own Toffolis (e.g. the two halves of the Lemma 7.3
+    // split) form pairs that lower-toffoli can give relative phases; it checks every middle.
+    if (opts.target != "nct") add({"pair-uncompute", "lower-toffoli"});
     if (level >= 1) {
         // Low level, still in H / CNOT / phase form (before to-target turns H into the target's
         // axes and hides the path variables). gate-cancel first removes the H pairs between
