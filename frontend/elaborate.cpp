@@ -1,4 +1,5 @@
 // Elaboration of .wq statements: declarations, gates, `^=`, phases, `when`, loops, `if`, measurement.
+#include <cmath>
 #include <algorithm>
 #include <filesystem>
 
@@ -215,6 +216,25 @@ void Elaborator::exec_bits(const File& f, const Stmt& s) {
     }
 }
 
+namespace {
+
+/// True when reducing theta into [0, 2*pi) moves it by an odd number of whole turns.
+bool reduction_flips_sign(const Number& n) {
+    if (n.kind == Number::PiRat || n.kind == Number::Rat) {
+        if (n.kind == Number::Rat && n.num == 0) return false;
+        if (n.kind == Number::Rat) return int64_t(std::floor(n.to_double() / (2 * M_PI))) % 2 != 0;
+        // theta = (num/den)*pi: whole turns = floor(num / (2*den)).
+        const __int128 num = n.num, two_den = __int128(2) * n.den;
+        __int128 turns = num / two_den;
+        if (num % two_den != 0 && num < 0) --turns;
+        return turns % 2 != 0;
+    }
+    if (!std::isfinite(n.real)) return false;
+    return std::fmod(std::floor(n.real / (2 * M_PI)), 2.0) != 0.0;
+}
+
+}  // namespace
+
 void Elaborator::exec_gate(const File& f, const Stmt& s) {
     ir::SourceLoc loc = f.loc_of(s);
     Angle a[3];
@@ -273,7 +293,18 @@ void Elaborator::exec_gate(const File& f, const Stmt& s) {
             }
         }
     }
+    // exp(-i*theta/2*P) has period 4*pi but an ir::Angle is kept mod 2*pi: when that reduction
+    // changes theta by an odd multiple of 2*pi (e.g. rz(-pi/4) stored as rz(7*pi/4)), the stored
+    // gate is minus the written one. The sign is a phase of pi on the enclosing controls (a global
+    // phase without them), emitted beside each such op so `when` keeps the written meaning.
+    const bool half_period_gate = s.gate == Gate::RX || s.gate == Gate::RY || s.gate == Gate::RZ ||
+                                  s.gate == Gate::U || s.gate == Gate::R || s.gate == Gate::XX;
+    const bool sign_flipped = half_period_gate && !s.args.empty() && reduction_flips_sign(eval_number(f, s.args[0]));
     for (Op& op : ops) {
+        if (sign_flipped) {
+            if (!ctx_.controls.empty()) emit(Op::phase(Angle::pi_times(1), ctx_.controls), loc);
+            else if (ctx_.cond_reg < 0) c_.global_phase += Angle::pi_times(1);
+        }
         if (!s.inverse) {
             emit(std::move(op), loc);
             continue;

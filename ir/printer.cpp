@@ -17,10 +17,25 @@ std::string product_text(const Circuit& c, const LitVec& lits, const char* op) {
     return s;
 }
 
+}  // namespace
+
+std::string stored_angle_text(const Angle& a) {
+    if (!a.is_exact()) {
+        std::string t = fmt::format("{:.17g}", a.to_radians());
+        if (t.find_first_of(".e") == std::string::npos) t += ".0";
+        return t;
+    }
+    if (a.num() == 0) return "0";
+    std::string head = a.num() == 1 ? "pi" : fmt::format("{}*pi", a.num());
+    return a.den() == 1 ? head : fmt::format("{}/{}", head, a.den());
+}
+
+namespace {
+
 /// The op's statement without its condition, pair tag or `when` controls.
 std::string bare_op(const Circuit& c, const Op& op) {
     auto w = [&](uint32_t wire) { return c.wire_name(wire); };
-    const std::string a0 = op.angles[0].to_string();
+    const std::string a0 = stored_angle_text(op.angles[0]);
     switch (op.kind) {
     case OpKind::X: return fmt::format("x {}", w(op.target));
     case OpKind::H: return fmt::format("h {}", w(op.target));

@@ -4,6 +4,7 @@
 
 #include <fmt/format.h>
 
+#include "ir/printer.h"
 #include "ir/error.h"
 #include "lowering/qasm_names.h"
 
@@ -18,14 +19,7 @@ using ir::OpKind;
 
 enum class Dialect { V2, V3 };
 
-/// An angle in [0, 2*pi) as stored: exp(-i*theta/2*P) has period 4*pi, so a controlled rotation must
-/// print the stored value, not the (-pi, pi] form (which may differ by 2*pi and flip the sign).
-std::string stored_angle_text(const Angle& a) {
-    if (!a.is_exact()) return fmt::format("{:.17g}", a.to_radians());
-    if (a.num() == 0) return "0";
-    std::string head = a.num() == 1 ? "pi" : fmt::format("{}*pi", a.num());
-    return a.den() == 1 ? head : fmt::format("{}/{}", head, a.den());
-}
+using ir::stored_angle_text;  // the stored [0, 2*pi) form: rotations have period 4*pi
 
 std::string text(const Angle& a) { return a.to_string(); }
 

@@ -18,7 +18,7 @@ using ir::OpKind;
 [[noreturn]] void not_pi_over_4(const ir::Circuit& c, const Op& op) {
     throw UserError(fmt::format("{} has an angle that is not a multiple of pi/4; clifford+t takes only those "
                                 "until rotation synthesis is available (or pick a rotation target)",
-                                describe_op(c, op)),
+                                describe_op(c, op, false)),
                     op.loc);
 }
 
@@ -66,9 +66,9 @@ ir::LitVec positive_of(const ir::LitVec& lits) {
 
 }  // namespace
 
-std::string describe_op(const ir::Circuit& c, const Op& op) {
+std::string describe_op(const ir::Circuit& c, const Op& op, bool with_location) {
     std::string where;
-    if (op.loc.known()) {
+    if (with_location && op.loc.known()) {
         const std::string file = op.loc.file < c.files.size() ? c.files[op.loc.file] : std::string("<input>");
         where = fmt::format(" ({}:{}:{})", file, op.loc.line, op.loc.column);
     }
@@ -81,7 +81,7 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
     s.inherit(op);
     const size_t nc = op.controls.size();
     auto needs_controls_lowered = [&] {
-        throw UserError(fmt::format("{} still has controls: run lower-controls before to-target", describe_op(c, op)),
+        throw UserError(fmt::format("{} still has controls: run lower-controls before to-target", describe_op(c, op, false)),
                         op.loc);
     };
     switch (op.kind) {
@@ -180,7 +180,7 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
     }
     default: break;
     }
-    throw UserError(fmt::format("{} has no clifford+t form", describe_op(c, op)), op.loc);
+    throw UserError(fmt::format("{} has no clifford+t form", describe_op(c, op, false)), op.loc);
 }
 
 void to_nct(const Op& op, OpSink& s, const ir::Circuit& c) {
@@ -191,7 +191,7 @@ void to_nct(const Op& op, OpSink& s, const ir::Circuit& c) {
     if (!classical)
         throw UserError(fmt::format("{} is not a NOT, CNOT or Toffoli: the nct target takes only classical "
                                     "reversible gates",
-                                    describe_op(c, op)),
+                                    describe_op(c, op, false)),
                         op.loc);
     if (op.kind == OpKind::Barrier) {
         s.push(op);

@@ -19,7 +19,8 @@ void to_nct(const ir::Op& op, OpSink& s, const ir::Circuit& c);
 /// with the target's entangler.
 void to_rotation_target(const ir::Op& op, OpSink& s, const ir::Circuit& c, Target t);
 
-/// "x (file.wq:3:5)" style label of an op for notes and errors.
-std::string describe_op(const ir::Circuit& c, const ir::Op& op);
+/// "'ccx' on a[0],a[1],flag (file.wq:3:5)" label of an op for notes; errors leave out the location
+/// (`with_location` false) because the driver prints the UserError's own location.
+std::string describe_op(const ir::Circuit& c, const ir::Op& op, bool with_location = true);
 
 }  // namespace whittle::lowering

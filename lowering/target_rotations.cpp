@@ -120,7 +120,7 @@ void to_rotation_target(const Op& op, OpSink& s, const ir::Circuit& c, Target t)
     }
     std::vector<uint32_t> wires = op.wires();
     if (wires.size() != 2)
-        throw UserError(fmt::format("{} still has controls: run lower-controls before to-target", describe_op(c, op)),
+        throw UserError(fmt::format("{} still has controls: run lower-controls before to-target", describe_op(c, op, false)),
                         op.loc);
     const uint32_t a = wires[0], b = wires[1];
     Op plain = op;
