@@ -4,6 +4,7 @@
 #include "ir/error.h"
 #include "ir/resources.h"
 #include "lowering/euler.h"
+#include "lowering/rotation_synthesis.h"
 #include "lowering/target_lowering.h"
 #include "lowering/toffoli_forms.h"
 
@@ -15,24 +16,38 @@ using ir::Lit;
 using ir::Op;
 using ir::OpKind;
 
-[[noreturn]] void not_pi_over_4(const ir::Circuit& c, const Op& op) {
-    throw UserError(fmt::format("{} has an angle that is not a multiple of pi/4; clifford+t takes only those "
-                                "until rotation synthesis is available (or pick a rotation target)",
-                                describe_op(c, op, false)),
-                    op.loc);
-}
-
-void phase_word(OpSink& s, const ir::Circuit& c, const Op& origin, Angle a, uint32_t w) {
+/// diag(1, e^{ia}) on w: exact words for multiples of pi/4, else the Ross-Selinger approximation of
+/// Rz(a) (Ross & Selinger 2016, arXiv:1403.2975) within the budget's epsilon, since
+/// diag(1, e^{ia}) = e^{ia/2} Rz(a). The approximation U satisfies ||omega^g U - Rz(a)|| <= bound.
+void phase_word(OpSink& s, RotationBudget& budget, Angle a, uint32_t w) {
     const int e = a.eighths();
-    if (e < 0) not_pi_over_4(c, origin);
     std::vector<Op> word;
-    append_phase_word(e, w, word);
-    for (Op& op : word) s.push(op);
+    if (e >= 0) {
+        append_phase_word(e, w, word);
+        for (Op& op : word) s.push(op);
+        return;
+    }
+    const RzApproximation approx = approximate_rz(a.to_radians(), budget.epsilon);
+    for (CliffordTGate g : approx.gates) {
+        switch (g) {
+        case CliffordTGate::H: s.h(w); break;
+        case CliffordTGate::S: s.phase(Angle::pi_times(1, 2), {Lit::pos(w)}); break;
+        case CliffordTGate::Sdg: s.phase(Angle::pi_times(-1, 2), {Lit::pos(w)}); break;
+        case CliffordTGate::T: s.phase(Angle::pi_times(1, 4), {Lit::pos(w)}); break;
+        case CliffordTGate::Tdg: s.phase(Angle::pi_times(-1, 4), {Lit::pos(w)}); break;
+        case CliffordTGate::X: s.x(w); break;
+        case CliffordTGate::Y: s.one(OpKind::Y, w); break;
+        case CliffordTGate::Z: s.phase(Angle::pi_times(1), {Lit::pos(w)}); break;
+        }
+    }
+    s.add_global_phase(a.divided_by(2) + Angle::pi_times(approx.global_phase_eighths, 4));
+    budget.error_bound += approx.error_bound;
+    ++budget.approximated;
 }
 
-void rz(OpSink& s, const ir::Circuit& c, const Op& origin, Angle a, uint32_t w) {
+void rz(OpSink& s, RotationBudget& budget, Angle a, uint32_t w) {
     // Rz(a) = e^{-ia/2} diag(1, e^{ia}).
-    phase_word(s, c, origin, a, w);
+    phase_word(s, budget, a, w);
     s.add_global_phase(-a.divided_by(2));
 }
 
@@ -43,11 +58,11 @@ void cnot(OpSink& s, Lit control, uint32_t t) {
 }
 
 /// XX(a) = (H x H) CX Rz_b(a) CX (H x H).
-void xx(OpSink& s, const ir::Circuit& c, const Op& origin, Angle a, uint32_t p, uint32_t q) {
+void xx(OpSink& s, RotationBudget& budget, Angle a, uint32_t p, uint32_t q) {
     s.h(p);
     s.h(q);
     s.cx(Lit::pos(p), q);
-    rz(s, c, origin, a, q);
+    rz(s, budget, a, q);
     s.cx(Lit::pos(p), q);
     s.h(p);
     s.h(q);
@@ -77,7 +92,7 @@ std::string describe_op(const ir::Circuit& c, const Op& op, bool with_location) 
     return fmt::format("'{}' on {}{}", ir::gate_name(op), wires, where);
 }
 
-void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
+void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c, RotationBudget& budget) {
     s.inherit(op);
     const size_t nc = op.controls.size();
     auto needs_controls_lowered = [&] {
@@ -102,7 +117,7 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
             // e^{ia(1-x)} = e^{ia} e^{-iax} for a negative literal.
             const Lit l = op.controls[0];
             if (!l.positive()) s.add_global_phase(op.angles[0]);
-            phase_word(s, c, op, l.positive() ? op.angles[0] : -op.angles[0], l.wire());
+            phase_word(s, budget, l.positive() ? op.angles[0] : -op.angles[0], l.wire());
             return;
         }
         if (op.angles[0] != Angle::pi_times(1) || nc > 3) needs_controls_lowered();
@@ -120,7 +135,7 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
     case OpKind::Parity: {
         const uint32_t last = op.controls.back().wire();
         for (size_t i = 0; i + 1 < nc; ++i) s.cx(Lit::pos(op.controls[i].wire()), last);
-        phase_word(s, c, op, op.angles[0], last);
+        phase_word(s, budget, op.angles[0], last);
         for (size_t i = nc - 1; i-- > 0;) s.cx(Lit::pos(op.controls[i].wire()), last);
         return;
     }
@@ -138,17 +153,17 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
         s.phase(Angle::pi_times(op.kind == OpKind::SX ? 1 : -1, 2), {Lit::pos(w)});
         s.h(w);
         return;
-    case OpKind::RZ: rz(s, c, op, op.angles[0], w); return;
+    case OpKind::RZ: rz(s, budget, op.angles[0], w); return;
     case OpKind::RX:
         s.h(w);
-        rz(s, c, op, op.angles[0], w);
+        rz(s, budget, op.angles[0], w);
         s.h(w);
         return;
     case OpKind::RY:
         // Ry = S Rx Sdg.
         s.phase(Angle::pi_times(-1, 2), {Lit::pos(w)});
         s.h(w);
-        rz(s, c, op, op.angles[0], w);
+        rz(s, budget, op.angles[0], w);
         s.h(w);
         s.phase(Angle::pi_times(1, 2), {Lit::pos(w)});
         return;
@@ -156,9 +171,23 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
     case OpKind::R: {
         std::vector<Op> word;
         Angle gp;
-        if (!synthesize_1q(ir::one_qubit_matrix(op), w, OneQubitBasis::CliffordT, word, gp)) not_pi_over_4(c, op);
-        for (Op& o : word) s.push(o);
-        s.add_global_phase(gp);
+        if (synthesize_1q(ir::one_qubit_matrix(op), w, OneQubitBasis::CliffordT, word, gp)) {
+            for (Op& o : word) s.push(o);
+            s.add_global_phase(gp);
+            return;
+        }
+        // Arbitrary angles: U(theta, phi, lambda) = e^{i(phi+lambda)/2} Rz(phi) Ry(theta) Rz(lambda)
+        // and R(theta, phi) = Rz(phi) Rx(theta) Rz(-phi), each Rz approximated.
+        const Angle theta = op.angles[0], phi = op.angles[1];
+        const Angle first = op.kind == OpKind::U ? op.angles[2] : -phi;
+        rz(s, budget, first, w);
+        if (op.kind == OpKind::U) s.phase(Angle::pi_times(-1, 2), {Lit::pos(w)});  // Ry = S Rx Sdg
+        s.h(w);
+        rz(s, budget, theta, w);
+        s.h(w);
+        if (op.kind == OpKind::U) s.phase(Angle::pi_times(1, 2), {Lit::pos(w)});
+        rz(s, budget, phi, w);
+        if (op.kind == OpKind::U) s.add_global_phase((phi + op.angles[2]).divided_by(2));
         return;
     }
     case OpKind::Swap:
@@ -166,14 +195,14 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c) {
         s.cx(Lit::pos(op.target2), op.target);
         s.cx(Lit::pos(op.target), op.target2);
         return;
-    case OpKind::XX: xx(s, c, op, op.angles[0], op.target, op.target2); return;
+    case OpKind::XX: xx(s, budget, op.angles[0], op.target, op.target2); return;
     case OpKind::ISwap: {
         // iSWAP = exp(i pi/4 (XX + YY)) = XX(-pi/2) YY(-pi/2); YY(a) = (S x S) XX(a) (Sdg x Sdg).
         const Angle m = Angle::pi_times(-1, 2);
-        xx(s, c, op, m, op.target, op.target2);
+        xx(s, budget, m, op.target, op.target2);
         s.phase(Angle::pi_times(-1, 2), {Lit::pos(op.target)});
         s.phase(Angle::pi_times(-1, 2), {Lit::pos(op.target2)});
-        xx(s, c, op, m, op.target, op.target2);
+        xx(s, budget, m, op.target, op.target2);
         s.phase(Angle::pi_times(1, 2), {Lit::pos(op.target)});
         s.phase(Angle::pi_times(1, 2), {Lit::pos(op.target2)});
         return;

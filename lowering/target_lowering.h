@@ -9,7 +9,15 @@ namespace whittle::lowering {
 
 /// Appends `op` rewritten into clifford+t gates (H S Sdg T Tdg X Y Z CNOT, measurement and
 /// feed-forward). Angles must be exact multiples of pi/4: UserError naming the op otherwise.
-void to_clifford_t(const ir::Op& op, OpSink& s, const ir::Circuit& c);
+/// The error allowance for rotations that are not multiples of pi/4 (Ross-Selinger approximation),
+/// and what the approximations used of it.
+struct RotationBudget {
+    double epsilon = 1e-10;   ///< operator-norm error allowed per approximated rotation
+    double error_bound = 0;   ///< sum of the approximations' error bounds
+    int approximated = 0;     ///< rotations approximated
+};
+
+void to_clifford_t(const ir::Op& op, OpSink& s, const ir::Circuit& c, RotationBudget& budget);
 
 /// Appends `op` as NOT/CNOT/Toffoli with positive controls; UserError for anything non-classical.
 void to_nct(const ir::Op& op, OpSink& s, const ir::Circuit& c);

@@ -18,6 +18,8 @@ PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
     out.reserve(c.ops.size() * 2);
     ir::Angle phase = c.global_phase;
     lowering::OpSink s(out, phase);
+    lowering::RotationBudget budget;
+    budget.epsilon = opts.epsilon;
     for (const ir::Op& op : c.ops) {
         if (lowering::in_target(op, t)) {
             out.push_back(op);
@@ -25,13 +27,17 @@ PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
         }
         r.count("ops-rewritten");
         switch (t) {
-        case lowering::Target::CliffordT: lowering::to_clifford_t(op, s, c); break;
+        case lowering::Target::CliffordT: lowering::to_clifford_t(op, s, c, budget); break;
         case lowering::Target::Nct: lowering::to_nct(op, s, c); break;
         default: lowering::to_rotation_target(op, s, c, t); break;
         }
     }
     for (const ir::Op& op : out)
         WHITTLE_ASSERT(lowering::in_target(op, t) && "to-target left a gate outside the target");
+    if (budget.approximated) {
+        r.count("rotations-approximated", budget.approximated);
+        r.error_bound += budget.error_bound;
+    }
     c.ops = std::move(out);
     c.global_phase = phase;
     r.changed = true;
