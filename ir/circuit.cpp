@@ -193,6 +193,24 @@ Circuit Circuit::empty_copy() const {
     return c;
 }
 
+namespace {
+
+/// exp(-i*theta/2*P) has period 4*pi while angles are kept mod 2*pi: the stored -theta (2*pi - theta)
+/// is minus the true inverse for every theta != 0. Under controls that sign is a phase of pi on the
+/// controls, pushed here; without controls it is a global phase and is dropped.
+void push_half_period_sign(const Op& op, std::vector<Op>& out) {
+    if (op.controls.empty() || op.angles[0].is_zero()) return;
+    Op sign = Op::phase(Angle::pi_times(1), op.controls);
+    sign.loc = op.loc;
+    sign.cond_reg = op.cond_reg;
+    sign.cond_value = op.cond_value;
+    sign.pair = op.pair;
+    sign.half = op.half == PairHalf::Compute ? PairHalf::Uncompute : op.half == PairHalf::Uncompute ? PairHalf::Compute : PairHalf::None;
+    out.push_back(sign);
+}
+
+}  // namespace
+
 void append_inverse(const Op& op, std::vector<Op>& out) {
     Op inv = op;
     if (op.half == PairHalf::Compute) inv.half = PairHalf::Uncompute;
@@ -207,12 +225,16 @@ void append_inverse(const Op& op, std::vector<Op>& out) {
         return;
     case OpKind::Phase:
     case OpKind::Parity:
+        inv.angles[0] = -op.angles[0];
+        out.push_back(inv);
+        return;
     case OpKind::RX:
     case OpKind::RY:
     case OpKind::RZ:
     case OpKind::XX:
         inv.angles[0] = -op.angles[0];
         out.push_back(inv);
+        push_half_period_sign(op, out);
         return;
     case OpKind::SX:
         inv.kind = OpKind::SXdg;
@@ -227,23 +249,22 @@ void append_inverse(const Op& op, std::vector<Op>& out) {
         inv.angles[1] = -op.angles[2];
         inv.angles[2] = -op.angles[1];
         out.push_back(inv);
+        push_half_period_sign(op, out);
         return;
     case OpKind::R:
         inv.angles[0] = -op.angles[0];
         out.push_back(inv);
+        push_half_period_sign(op, out);
         return;
     case OpKind::ISwap: {
-        // iSWAP^dagger = (Z(x)Z) iSWAP (Z(x)Z): Z(x)Z anticommutes with XX and YY.
+        // iSWAP^dagger = (Z(x)I) iSWAP (Z(x)I): Z(x)I anticommutes with XX and YY (Z(x)Z would commute).
         Op z1 = Op::phase(Angle::pi_times(1), {Lit::pos(op.target)});
-        Op z2 = Op::phase(Angle::pi_times(1), {Lit::pos(op.target2)});
-        z1.loc = z2.loc = op.loc;
-        z1.cond_reg = z2.cond_reg = op.cond_reg;
-        z1.cond_value = z2.cond_value = op.cond_value;
+        z1.loc = op.loc;
+        z1.cond_reg = op.cond_reg;
+        z1.cond_value = op.cond_value;
         out.push_back(z1);
-        out.push_back(z2);
         out.push_back(inv);
         out.push_back(z1);
-        out.push_back(z2);
         return;
     }
     case OpKind::Measure:
