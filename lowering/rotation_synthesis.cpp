@@ -133,13 +133,21 @@ RzApproximation synthesize_rz(double theta, double epsilon, long rho_steps_per_c
         for (const Candidate& c : cands) {
             auto t = solve_norm_equation(two_k - c.abs2, rho_steps_per_candidate);
             if (!t) continue;
-            DOmegaMatrix u;
-            u.m[0][0] = c.u;
-            u.m[0][1] = -t->conj();
-            u.m[1][0] = *t;
-            u.m[1][1] = c.u.conj();
-            u.k = k;
-            ExactSynthesis s = synthesize_exact(u);
+            // t and omega^m t solve the same norm equation; the unitaries differ by conjugation with
+            // T^m, which keeps the error but not always the T-count. Clifford conjugations (even m) keep
+            // the T-count too, so m = 0 and m = 1 cover all eight.
+            ExactSynthesis s;
+            for (int m = 0; m < 2; ++m) {
+                ZOmega tm = t->times_omega_pow(m);
+                DOmegaMatrix u;
+                u.m[0][0] = c.u;
+                u.m[0][1] = -tm.conj();
+                u.m[1][0] = tm;
+                u.m[1][1] = c.u.conj();
+                u.k = k;
+                ExactSynthesis sm = synthesize_exact(u);
+                if (m == 0 || sm.t_count < s.t_count) s = std::move(sm);
+            }
             RzApproximation r;
             r.gates = std::move(s.gates);
             r.t_count = s.t_count;
