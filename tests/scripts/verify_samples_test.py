@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""`whittle compile --verify` on every sample at every -O level and several targets.
+"""`whittle compile --verify` on every sample at every -O level, high level and lowered to clifford+t.
 
 Each run must exit 0 (every pass checked equivalent, or undecided with a warning) or 2 (the target
 refuses an op, with a message); exit 1 means a pass broke equivalence, and the test prints the
