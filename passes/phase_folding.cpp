@@ -187,7 +187,12 @@ private:
             const uint32_t k = uint32_t(op.controls.size());
             real_[i] = make_term(i, 0, prod, op.angles[0], Angle(), k);
             has_term_[i] = true;
-            if (s_.expand_products && k >= 2 && k <= s_.max_expand_literals) expand(i, op);
+            // Expand only when the parity terms stay Clifford+T (angle / 2^{k-1} a multiple of pi/4:
+            // CS, CZ, CCZ): finer parities would need rotation synthesis where the product lowers
+            // exactly through Toffolis.
+            if (s_.expand_products && k >= 2 && k <= s_.max_expand_literals &&
+                op.angles[0].divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(4))
+                expand(i, op);
             return;
         }
         case OpKind::Parity: {

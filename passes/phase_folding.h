@@ -13,7 +13,7 @@ struct FoldSettings {
     /// cost (see fold_phase_terms). Off at the low level, where no Parity ops may appear.
     bool expand_products = false;
     /// Largest product expanded (2^k - 1 parity terms).
-    size_t max_expand_literals = 4;
+    size_t max_expand_literals = 3;
     /// A wire whose polynomial would exceed this many monomials gets a fresh variable instead.
     size_t max_terms = 64;
 };
@@ -33,6 +33,9 @@ struct FoldSettings {
 /// polynomial identity AND(x_1..x_k) = 2^{1-k} * sum over non-empty S of (-1)^{|S|-1} XOR(x_S)
 /// (e.g. xy = (x + y - (x ^ y)) / 2), when some of those parities occur in other terms and the
 /// whole plan lowers the cost: one per non-Clifford parity term, 2^k - 1 per non-Clifford AND term.
+/// Only products whose parity angles t / 2^{k-1} are multiples of pi/4 are expanded (CS, CZ, CCZ
+/// and their multiples): finer parities would need rotation synthesis where the product itself
+/// lowers exactly through Toffolis.
 /// Linear in the circuit size for fixed caps. Returns false, leaving the circuit untouched, when
 /// no two terms merge.
 bool fold_phase_terms(ir::Circuit& c, const FoldSettings& settings, PassResult& result);
