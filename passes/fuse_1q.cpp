@@ -1,6 +1,8 @@
 // fuse-1q: per-wire runs collected in one scan; replacements placed at each run's last op.
 #include "passes/fuse_1q.h"
 
+#include <algorithm>
+
 #include "ir/resources.h"
 #include "lowering/euler.h"
 #include "lowering/targets.h"
@@ -15,7 +17,8 @@ bool is_one_qubit(const Op& op) {
     if (op.is_conditioned()) return false;
     switch (op.kind) {
     case OpKind::Phase:
-    case OpKind::Parity: return op.controls.size() == 1;
+    case OpKind::Parity:  // a phase on !w is diag(e^{ia}, 1): only positive literals are diag(1, e^{ia})
+        return op.controls.size() == 1 && op.controls[0].positive();
     case OpKind::X:
     case OpKind::H:
     case OpKind::Y:
@@ -93,8 +96,9 @@ PassResult fuse_1q(ir::Circuit& c, const PassOptions& opts) {
         ir::Angle gp;
         bool ok = false;
         if (target == lowering::Target::Nct) {
-            ok = true;  // X only: parity of the count
-            if (old.size() % 2) fresh.push_back(Op::x(w));
+            // Only runs of plain X gates reduce to the parity of their count.
+            ok = std::all_of(old.begin(), old.end(), [](const Op& op) { return op.kind == OpKind::X; });
+            if (ok && old.size() % 2) fresh.push_back(Op::x(w));
         } else {
             ok = lowering::synthesize_1q(lowering::one_qubit_product(old), w, lowering::one_qubit_basis(target), fresh,
                                          gp);
