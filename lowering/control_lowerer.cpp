@@ -56,7 +56,21 @@ void ControlLowerer::mcx(const ir::LitVec& controls, uint32_t target) {
         sink_.x(target, controls);
         return;
     }
+    // The op's own wires are not |0> work wires for the sub-ops of its construction, even when the
+    // tracker proved one of them |0> before the op (its target is toggled while the op is built).
     const std::vector<uint32_t> busy = wires_of(controls, {target});
+    std::vector<uint32_t> marked;
+    for (uint32_t w : busy)
+        if (!in_use_[w]) {
+            in_use_[w] = 1;
+            marked.push_back(w);
+        }
+    mcx_construct(controls, target, busy);
+    for (uint32_t w : marked) in_use_[w] = 0;
+}
+
+void ControlLowerer::mcx_construct(const ir::LitVec& controls, uint32_t target, const std::vector<uint32_t>& busy) {
+    const size_t n = controls.size();
     std::vector<uint32_t> clean = take_clean(n - 2, busy);
     if (clean.size() == n - 2 && style_ == ControlStyle::Depth) {
         set_choice(fmt::format("mcx/{}: and-tree, {} clean wires", n, clean.size()));

@@ -38,6 +38,8 @@ public:
 
     // Work-wire bookkeeping used by the constructions.
     /// Up to n clean |0> wires not touched by `busy` wires; marks them in use.
+    /// Picks and emits the construction for one MCX whose own wires are `busy`.
+    void mcx_construct(const ir::LitVec& controls, uint32_t target, const std::vector<uint32_t>& busy);
     std::vector<uint32_t> take_clean(size_t n, const std::vector<uint32_t>& busy);
     void release_clean(const std::vector<uint32_t>& wires);
     /// Up to n wires (any state) that `busy` does not touch; they must be restored by the caller.
