@@ -1,5 +1,6 @@
 // fuse-1q: per-wire runs collected in one scan; replacements placed at each run's last op.
 #include "passes/fuse_1q.h"
+#include "passes/op_replacements.h"
 
 #include <algorithm>
 
@@ -134,13 +135,7 @@ PassResult fuse_1q(ir::Circuit& c, const PassOptions& opts) {
     }
     for (uint32_t w = 0; w < c.num_qubits(); ++w) flush(w);
     if (r.stats.empty()) return r;
-    std::vector<Op> out;
-    out.reserve(n);
-    for (size_t i = 0; i < n; ++i) {
-        if (!dropped[i]) out.push_back(c.ops[i]);
-        for (Op& op : insert[i]) out.push_back(std::move(op));
-    }
-    c.ops = std::move(out);
+    apply_replacements(c, dropped, insert);
     c.global_phase = phase;
     r.changed = true;
     return r;

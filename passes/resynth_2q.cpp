@@ -1,5 +1,6 @@
 // resynth-2q: block collection with one open block per wire; replacements at each block's last op.
 #include "passes/resynth_2q.h"
+#include "passes/op_replacements.h"
 
 #include "lowering/targets.h"
 #include "lowering/two_qubit_synthesis.h"
@@ -93,13 +94,7 @@ PassResult resynth_2q(ir::Circuit& c, const PassOptions& opts) {
     }
     for (uint32_t w = 0; w < c.num_qubits(); ++w) close(open[w]);
     if (r.stats.empty()) return r;
-    std::vector<Op> out;
-    out.reserve(n);
-    for (size_t i = 0; i < n; ++i) {
-        if (!dropped[i]) out.push_back(c.ops[i]);
-        for (Op& op : insert[i]) out.push_back(std::move(op));
-    }
-    c.ops = std::move(out);
+    apply_replacements(c, dropped, insert);
     c.global_phase = phase;
     r.changed = true;
     return r;

@@ -1,0 +1,16 @@
+// See op_replacements.h.
+#include "passes/op_replacements.h"
+
+namespace whittle::passes {
+
+void apply_replacements(ir::Circuit& c, const std::vector<uint8_t>& dropped, std::vector<std::vector<ir::Op>>& insert) {
+    std::vector<ir::Op> out;
+    out.reserve(c.ops.size());
+    for (size_t i = 0; i < c.ops.size(); ++i) {
+        if (!dropped[i]) out.push_back(c.ops[i]);
+        for (ir::Op& op : insert[i]) out.push_back(std::move(op));
+    }
+    c.ops = std::move(out);
+}
+
+}  // namespace whittle::passes
