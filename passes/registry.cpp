@@ -1,6 +1,12 @@
 // The pass registry: add a pass by adding its header and one line here.
 #include "passes/registry.h"
 
+#include <deque>
+
+#include <fmt/format.h>
+
+#include "ir/error.h"
+
 #include "passes/cancel.h"
 #include "passes/fold_phases.h"
 #include "passes/fold_rotations.h"
@@ -51,10 +57,27 @@ const std::vector<PassInfo>& all_passes() {
     return passes;
 }
 
+namespace {
+
+/// Passes added by register_pass; a deque so pointers from find_pass stay valid.
+std::deque<PassInfo>& registered_passes() {
+    static std::deque<PassInfo> passes;
+    return passes;
+}
+
+}  // namespace
+
 const PassInfo* find_pass(std::string_view name) {
     for (const PassInfo& p : all_passes())
         if (name == p.name) return &p;
+    for (const PassInfo& p : registered_passes())
+        if (name == p.name) return &p;
     return nullptr;
+}
+
+void register_pass(const PassInfo& pass) {
+    if (find_pass(pass.name)) throw UserError(fmt::format("a pass named '{}' exists already", pass.name));
+    registered_passes().push_back(pass);
 }
 
 }  // namespace whittle::passes
