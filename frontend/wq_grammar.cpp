@@ -94,7 +94,7 @@ private:
         return peek_;
     }
     bool is(Tok k) const { return cur_.kind == k; }
-    bool is_word(std::string_view w) const { return cur_.kind == Tok::Ident && cur_.text == w; }
+    bool is_word(std::string_view w) const { return cur_.kind == Tok::Ident && !cur_.quoted && cur_.text == w; }
 
     [[noreturn]] void fail(const Token& t, const std::string& msg) const {
         throw UserError(msg, file_.loc(t.line, t.col));
@@ -251,7 +251,7 @@ private:
         case Tok::Ident: {
             uint32_t sym = syms_.intern(t.text);
             advance();
-            if (sym == pi_) return node(ExprKind::Pi, t);
+            if (sym == pi_ && !t.quoted) return node(ExprKind::Pi, t);
             return parse_name_tail(sym, t);
         }
         default: expected("an expression (a name, a number, 'pi' or '(')");
@@ -287,7 +287,7 @@ private:
         if (!is(Tok::Ident)) expected(what);
         Token t = cur_;
         uint32_t sym = syms_.intern(t.text);
-        if (sym == pi_) fail(t, fmt::format("expected {}, found 'pi'", what));
+        if (sym == pi_ && !t.quoted) fail(t, fmt::format("expected {}, found 'pi'", what));
         advance();
         if (is(Tok::LParen)) expected(fmt::format("{} (not a call)", what));
         return parse_name_tail(sym, t);
@@ -364,6 +364,7 @@ private:
         if (!is(Tok::Ident)) expected("a statement");
         Tok next = peek().kind;
         if (next == Tok::XorEq || next == Tok::LBracket || next == Tok::SwapArrow) return parse_assignment();
+        if (t.quoted) return parse_gate_or_call(false);  // `name` is never a keyword
         std::string_view w = t.text;
         if (w == "let") return parse_let();
         if (w == "qubit" || w == "ancilla" || w == "borrow" || w == "bit") return parse_decl();
@@ -456,7 +457,7 @@ private:
 
     uint32_t parse_gate_or_call(bool inverse) {
         Token t = cur_;
-        if (const GateInfo* g = find_gate(t.text)) {
+        if (const GateInfo* g = t.quoted ? nullptr : find_gate(t.text)) {
             advance();
             uint32_t s = new_stmt(StmtKind::Gate, t);
             st(s).gate = g->gate;

@@ -126,6 +126,16 @@ Token Lexer::next(bool skip_newlines) {
         t.text = std::string_view(start, size_t(pos_ - start));
         return t;
     }
+    if (ch == '`') {  // `name`: a name the printer had to quote because it is also a keyword
+        const char* p = pos_ + 1;
+        if (x3::parse(p, end_, identifier, range) && p != end_ && *p == '`') {
+            pos_ = p + 1;
+            t.kind = Tok::Ident;
+            t.quoted = true;
+            t.text = std::string_view(start + 1, size_t(p - start - 1));
+            return t;
+        }
+    }
     if (ch >= '0' && ch <= '9') {
         const char* p = pos_;
         double d = 0;

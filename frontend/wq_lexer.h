@@ -25,6 +25,7 @@ struct Token {
     uint64_t ival = 0;      ///< Int
     double dval = 0.0;      ///< Real
     bool overflow = false;  ///< Int literal too large for 64 bits
+    bool quoted = false;    ///< Ident written as `name`: a plain name even when it is a keyword or 'pi'
 };
 
 /// Scans one token at a time. Newlines are tokens (they end statements) except inside ( ) and [ ],

@@ -3,10 +3,35 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+#include <array>
+#include <string_view>
+
 namespace whittle::ir {
 namespace {
 
-std::string lit_text(const Circuit& c, Lit l) { return (l.positive() ? "" : "!") + c.wire_name(l.wire()); }
+/// Words the .wq grammar (frontend/wq_grammar.cpp) gives a meaning of its own. A register or bit
+/// with one of these names (an OpenQASM register called `when`, say) is written `when` in
+/// backquotes, which the lexer reads as a plain name. Gate names need no quotes: a wire never
+/// starts a statement except before `^=`, `[` or `<->`, where the parser reads it as a wire.
+constexpr std::array<std::string_view, 24> kReservedWords = {
+    "pi",     "let",     "qubit", "ancilla", "borrow", "bit",       "routine", "when",
+    "compute", "then",   "for",   "in",      "repeat", "use",       "measure", "as",
+    "if",     "else",    "reset", "barrier", "phase",  "uncompute", "int",     "angle"};
+
+std::string name_text(const std::string& name) {
+    if (std::find(kReservedWords.begin(), kReservedWords.end(), name) == kReservedWords.end()) return name;
+    return "`" + name + "`";
+}
+
+std::string wire_text(const Circuit& c, uint32_t wire) {
+    if (wire >= c.qubits.size()) return c.wire_name(wire);
+    const Qubit& q = c.qubits[wire];
+    const Register& r = c.registers[q.reg];
+    return r.scalar ? name_text(r.name) : fmt::format("{}[{}]", name_text(r.name), q.index);
+}
+
+std::string lit_text(const Circuit& c, Lit l) { return (l.positive() ? "" : "!") + wire_text(c, l.wire()); }
 
 std::string product_text(const Circuit& c, const LitVec& lits, const char* op) {
     std::string s;
@@ -34,7 +59,7 @@ namespace {
 
 /// The op's statement without its condition, pair tag or `when` controls.
 std::string bare_op(const Circuit& c, const Op& op) {
-    auto w = [&](uint32_t wire) { return c.wire_name(wire); };
+    auto w = [&](uint32_t wire) { return wire_text(c, wire); };
     const std::string a0 = stored_angle_text(op.angles[0]);
     switch (op.kind) {
     case OpKind::X: return fmt::format("x {}", w(op.target));
@@ -55,8 +80,8 @@ std::string bare_op(const Circuit& c, const Op& op) {
     case OpKind::Measure: {
         for (const ClassicalRegister& r : c.cregs) {
             if (op.cbit < int32_t(r.first) || op.cbit >= int32_t(r.first + r.size)) continue;
-            if (r.scalar) return fmt::format("measure {} as {}", w(op.target), r.name);
-            return fmt::format("measure {} as {}[{}]", w(op.target), r.name, uint32_t(op.cbit) - r.first);
+            if (r.scalar) return fmt::format("measure {} as {}", w(op.target), name_text(r.name));
+            return fmt::format("measure {} as {}[{}]", w(op.target), name_text(r.name), uint32_t(op.cbit) - r.first);
         }
         return fmt::format("measure {} as <bit {}>", w(op.target), op.cbit);
     }
@@ -72,10 +97,10 @@ std::string op_statement(const Circuit& c, const Op& op) {
     switch (op.kind) {
     case OpKind::X:
         if (op.controls.empty()) return bare_op(c, op);
-        return fmt::format("{} ^= {}", c.wire_name(op.target), product_text(c, op.controls, " & "));
+        return fmt::format("{} ^= {}", wire_text(c, op.target), product_text(c, op.controls, " & "));
     case OpKind::Phase: {
         if (op.controls.size() == 1 && op.controls[0].positive()) {
-            const std::string q = c.wire_name(op.controls[0].wire());
+            const std::string q = wire_text(c, op.controls[0].wire());
             const Angle& a = op.angles[0];
             if (a == Angle::pi_times(1) && a.is_exact()) return "z " + q;
             if (a.is_exact() && a == Angle::pi_times(1, 2)) return "s " + q;
@@ -100,9 +125,9 @@ std::string with_condition(const Circuit& c, const Op& op, std::string stmt) {
     if (!op.is_conditioned()) return stmt;
     if (size_t(op.cond_reg) >= c.cregs.size()) return fmt::format("if <bits {}> == {} {{ {} }}", op.cond_reg, op.cond_value, stmt);
     const ClassicalRegister& r = c.cregs[size_t(op.cond_reg)];
-    if (r.scalar && op.cond_value == 1) return fmt::format("if {} {{ {} }}", r.name, stmt);
-    if (r.scalar && op.cond_value == 0) return fmt::format("if !{} {{ {} }}", r.name, stmt);
-    return fmt::format("if {} == {} {{ {} }}", r.name, op.cond_value, stmt);
+    if (r.scalar && op.cond_value == 1) return fmt::format("if {} {{ {} }}", name_text(r.name), stmt);
+    if (r.scalar && op.cond_value == 0) return fmt::format("if !{} {{ {} }}", name_text(r.name), stmt);
+    return fmt::format("if {} == {} {{ {} }}", name_text(r.name), op.cond_value, stmt);
 }
 
 std::string tag_text(const Op& op) {
@@ -128,7 +153,7 @@ std::string print_wq(const Circuit& c) {
         size_t j = i;
         for (; j < c.registers.size() && c.registers[j].role == role; ++j) {
             const Register& r = c.registers[j];
-            line += (j == i ? " " : ", ") + (r.scalar ? r.name : fmt::format("{}[{}]", r.name, r.size));
+            line += (j == i ? " " : ", ") + (r.scalar ? name_text(r.name) : fmt::format("{}[{}]", name_text(r.name), r.size));
         }
         i = j;
         out += line + "\n";
@@ -137,7 +162,7 @@ std::string print_wq(const Circuit& c) {
         std::string line = "bit";
         for (size_t i = 0; i < c.cregs.size(); ++i) {
             const ClassicalRegister& r = c.cregs[i];
-            line += (i ? ", " : " ") + (r.scalar ? r.name : fmt::format("{}[{}]", r.name, r.size));
+            line += (i ? ", " : " ") + (r.scalar ? name_text(r.name) : fmt::format("{}[{}]", name_text(r.name), r.size));
         }
         out += line + "\n";
     }

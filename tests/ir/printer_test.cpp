@@ -123,3 +123,35 @@ TEST_CASE("inexact angles keep every bit through the printed 17 digits") {
     REQUIRE(back.ops.size() == c.ops.size());
     for (size_t i = 0; i < c.ops.size(); ++i) CHECK(back.ops[i].angles[0].to_radians() == c.ops[i].angles[0].to_radians());
 }
+
+TEST_CASE("registers named like keywords, gates or pi round-trip from OpenQASM through .wq") {
+    // OpenQASM 2.0 identifiers (Cross et al. 2017, arXiv:1707.03429) may be words that .wq reserves.
+    const std::string qasm = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                             "qreg when[2];\nqreg phase[1];\nqreg h[1];\nqreg pi[1];\nqreg measure[1];\nqreg x[1];\n"
+                             "creg then[1];\ncreg as[2];\n"
+                             "h when[0];\ncx when[0],phase[0];\nccx when[1],h[0],pi[0];\nt pi[0];\nswap measure[0],x[0];\n"
+                             "cu1(pi/8) x[0],h[0];\nmeasure when[0] -> then[0];\nif(then==1) x pi[0];\n"
+                             "measure h[0] -> as[1];\nif(as==2) h measure[0];\n";
+    frontend::SourceManager sm;
+    const ir::Circuit c = frontend::load_text(qasm, "harbor_keywords.qasm", frontend::InputFormat::Qasm2, sm);
+    const std::string text = ir::print_wq(c);
+    CHECK(text.find("`when`[2]") != std::string::npos);
+    CHECK(text.find("`pi`[0]") != std::string::npos);
+    check_round_trip(c);
+    // The quotes only lift the keyword meaning: a quoted name is the same name as a plain one.
+    const ir::Circuit plain = parse("qubit `t`, u\nh `t`\nu ^= t\n");
+    CHECK(plain.registers[0].name == "t");
+    CHECK(plain.ops.size() == 2);
+}
+
+TEST_CASE("a quoted keyword is a name, an unquoted one keeps its meaning") {
+    const ir::Circuit c = parse("qubit `when`[2], `phase`\nwhen `when`[0] { h `phase` }\nphase(pi) `when`[1] & `phase`\n");
+    REQUIRE(c.registers.size() == 2);
+    CHECK(c.registers[0].name == "when");
+    CHECK(c.registers[1].name == "phase");
+    REQUIRE(c.ops.size() == 2);
+    CHECK(c.ops[0].kind == ir::OpKind::H);
+    CHECK(c.ops[0].controls.size() == 1);
+    CHECK(c.ops[1].kind == ir::OpKind::Phase);
+    check_round_trip(c);
+}
