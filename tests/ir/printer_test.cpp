@@ -127,11 +127,11 @@ TEST_CASE("inexact angles keep every bit through the printed 17 digits") {
 TEST_CASE("registers named like keywords, gates or pi round-trip from OpenQASM through .wq") {
     // OpenQASM 2.0 identifiers (Cross et al. 2017, arXiv:1707.03429) may be words that .wq reserves.
     const std::string qasm = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
-                             "qreg when[2];\nqreg phase[1];\nqreg h[1];\nqreg pi[1];\nqreg measure[1];\nqreg x[1];\n"
+                             "qreg when[2];\nqreg phase[1];\nqreg h[1];\nqreg pi[1];\nqreg repeat[1];\nqreg x[1];\n"
                              "creg then[1];\ncreg as[2];\n"
-                             "h when[0];\ncx when[0],phase[0];\nccx when[1],h[0],pi[0];\nt pi[0];\nswap measure[0],x[0];\n"
+                             "h when[0];\ncx when[0],phase[0];\nccx when[1],h[0],pi[0];\nt pi[0];\nswap repeat[0],x[0];\n"
                              "cu1(pi/8) x[0],h[0];\nmeasure when[0] -> then[0];\nif(then==1) x pi[0];\n"
-                             "measure h[0] -> as[1];\nif(as==2) h measure[0];\n";
+                             "measure h[0] -> as[1];\nif(as==2) h repeat[0];\n";
     frontend::SourceManager sm;
     const ir::Circuit c = frontend::load_text(qasm, "harbor_keywords.qasm", frontend::InputFormat::Qasm2, sm);
     const std::string text = ir::print_wq(c);

@@ -1,9 +1,13 @@
 // The equivalence checker against textbook identities and published circuits, engine by engine.
 #include <doctest/doctest.h>
 
+#include <algorithm>
+
+#include "frontend/load.h"
 #include "ir/classical_sim.h"
 #include "passes/equiv_engines.h"
 #include "passes/equivalence.h"
+#include "passes/pipeline.h"
 #include "support/textbook_circuits.h"
 
 using namespace whittle;
@@ -320,4 +324,82 @@ TEST_CASE("60-qubit Clifford+T ripple-carry adder against its Toffoli form: path
     CHECK(r.verdict == Verdict::NotEquivalent);
     CHECK(r.engine == "path-sum");
     CHECK(r.counterexample.find("a=1") != std::string::npos);
+}
+
+namespace {
+
+Circuit wq(const std::string& text) {
+    frontend::SourceManager sm;
+    return frontend::load_text(text, "harbor_branch.wq", frontend::InputFormat::Wq, sm);
+}
+
+}  // namespace
+
+// After a measurement each outcome is its own branch; a phase on a whole branch cannot be observed
+// (Nielsen & Chuang ch. 2: states that differ by a global phase are the same state; common practice).
+// So a global phase under `if` may be dropped, and the checker compares each branch up to its own
+// phase; a phase on some wires under `if` is relative and must stay.
+TEST_CASE("a phase on a whole measurement branch is unobservable; a relative phase under 'if' is not") {
+    const std::string head = "qubit crane, berth\nh crane; h berth\nmeasure crane as m\n";
+    // m = 1 leaves crane in |1>: Z on it multiplies that whole branch by -1.
+    EquivResult r = check_equivalence(wq(head), wq(head + "if m { z crane }\n"));
+    CHECK(r.verdict == Verdict::Equivalent);
+    CHECK(r.engine == "branches");
+    // berth is still in superposition: Z on it is a relative phase in the m = 1 branch.
+    r = check_equivalence(wq(head), wq(head + "if m { z berth }\n"));
+    CHECK(r.verdict == Verdict::NotEquivalent);
+    CHECK(r.engine == "branches");
+}
+
+TEST_CASE("the elaborator drops a global phase under 'if' and keeps it on 'when' controls") {
+    const std::string head = "qubit crane, berth\nh crane; h berth\nmeasure crane as m\n";
+    const Circuit plain = wq(head);
+    const Circuit global = wq(head + "if m { phase(pi/3) 1; rz(-pi/4) crane }\n");
+    CHECK(global.global_phase.is_zero());  // neither the written phase nor the rotation's sign flip
+    CHECK(check_equivalence(plain, global).verdict == Verdict::Equivalent);
+    // Under `when berth` the same phase is e^{i pi/3} on berth = 1 in the m = 1 branch: kept, conditioned.
+    const Circuit controlled = wq(head + "if m { when berth { phase(pi/3) 1 } }\n");
+    REQUIRE(controlled.ops.size() == plain.ops.size() + 1);
+    const Op& p = controlled.ops.back();
+    CHECK(p.kind == OpKind::Phase);
+    CHECK(p.is_conditioned());
+    CHECK(p.controls.size() == 1);
+    CHECK(check_equivalence(plain, controlled).verdict == Verdict::NotEquivalent);
+    // rz(-pi/4) is stored as rz(7*pi/4), minus the written gate: under `when` the sign is a
+    // conditioned phase of pi on the control (Nielsen & Chuang ch. 4, R_z; the 4*pi period).
+    const Circuit written = wq(head + "if m { when berth { rz(-pi/4) crane } }\n");
+    const Circuit by_hand = wq(head + "if m { when berth { ~rz(pi/4) crane } }\n");
+    CHECK(check_equivalence(written, by_hand).verdict == Verdict::Equivalent);
+    CHECK(check_equivalence(written, plain).verdict == Verdict::NotEquivalent);
+}
+
+TEST_CASE("conditioned rotations, controlled or not, keep their meaning through every target at -O2") {
+    // Harbor Logistics: a crane's reading decides which correction the berth and gate wires get.
+    const Circuit source = wq("qubit crane, berth, gate\nh crane; h berth; h gate\nmeasure crane as m\n"
+                              "if m { rz(pi/3) berth; when gate { rz(pi/5) berth }; when !gate { ry(pi/7) berth } }\n"
+                              "if m { phase(pi/4) berth & gate; when berth { h gate } }\n"
+                              "if !m { when berth { rx(3*pi/4) gate }; u(pi/3, pi/5, pi/7) gate }\n");
+    for (const char* target : {"", "clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx"}) {
+        INFO("target " << target);
+        passes::PassOptions po;
+        po.level = 2;
+        po.target = target;
+        po.allow_measurement = true;
+        Circuit out = source;
+        passes::run_passes(out, passes::pipeline_for(po), po);
+        const EquivResult r = check_equivalence(source, out);
+        INFO(r.engine << ": " << r.confidence << " " << r.counterexample);
+        CHECK(r.verdict == Verdict::Equivalent);
+        // A wrong conditioned angle is caught: flip the sign of the first conditioned op's angle that
+        // is not a multiple of pi, on an op that leaves the measured crane (wire 0) alone.
+        for (Op& op : out.ops) {
+            const std::vector<uint32_t> ws = op.wires();
+            if (!op.is_conditioned() || op.kind == OpKind::Measure || op.angles[0].is_zero() ||
+                op.angles[0] == Angle::pi_times(1) || std::find(ws.begin(), ws.end(), 0u) != ws.end())
+                continue;
+            op.angles[0] = -op.angles[0];
+            break;
+        }
+        CHECK(check_equivalence(source, out).verdict == Verdict::NotEquivalent);
+    }
 }
