@@ -12,6 +12,7 @@
 #include <vector>
 
 #include <CLI/CLI.hpp>
+#include <fmt/format.h>
 
 #include "frontend/cli/commands.h"
 #include "frontend/load.h"
