@@ -68,6 +68,16 @@ ir::Mat4 swap_gate() {
     return m;
 }
 
+/// The iSWAP count from the Shende-Bullock-Markov CNOT criteria (quant-ph/0308045, criteria from
+/// memory), not from the Weyl coordinates: k iSWAPs reach exactly SWAP^k times the k-CNOT classes
+/// (iSWAP = SWAP CZ (S x S)), so 1 iSWAP iff SWAP U needs exactly 1 CNOT, 2 iff U needs 1 or 2.
+int iswap_count_by_sbm(const ir::Mat4& u) {
+    const int c = lowering::sbm_cnot_count(u);
+    if (c == 0) return 0;
+    if (lowering::sbm_cnot_count(swap_gate() * u) == 1) return 1;
+    return c <= 2 ? 2 : 3;
+}
+
 const lowering::Entangler kEntanglers[] = {lowering::Entangler::CX, lowering::Entangler::CZ,
                                            lowering::Entangler::ISwap, lowering::Entangler::XX};
 const lowering::OneQubitBasis kBases[] = {lowering::OneQubitBasis::ZSX, lowering::OneQubitBasis::ZXZ,
@@ -202,6 +212,7 @@ TEST_CASE("iSWAP synthesis: minimal counts per Weyl class, 1e-10 in operator nor
             CHECK(s.entanglers == k.count);
             CHECK(count_kind(s.ops, ir::OpKind::ISwap) == size_t(k.count));
             CHECK(lowering::entangler_count(k.u, e) == k.count);
+            CHECK(iswap_count_by_sbm(k.u) == k.count);
             CHECK(operator_norm_distance(got, k.u) < 1e-10);
             // The recorded phase is the global phase: no phase freedom left.
             CHECK((got - k.u).norm() < 1e-9);
