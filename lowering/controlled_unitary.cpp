@@ -11,6 +11,7 @@
 #include "ir/error.h"
 #include "lowering/control_lowerer.h"
 #include "lowering/euler.h"
+#include "lowering/mcx_constructions.h"
 
 namespace whittle::lowering {
 namespace {
@@ -53,12 +54,12 @@ void ControlLowerer::mc_phase(const LitVec& lits, Angle a) {
     const size_t k = lits.size();
     if (a.is_zero()) return;
     if (k == 0) {
-        sink_.add_global_phase(a);
+        sink_->add_global_phase(a);
         return;
     }
     const Angle pi = Angle::pi_times(1);
     if (k == 1 || (k <= 3 && a == pi)) {
-        sink_.phase(a, lits);  // Z/S/T, CZ and CCZ stay for the Toffoli stage and the target
+        sink_->phase(a, lits);  // Z/S/T, CZ and CCZ stay for the Toffoli stage and the target
         return;
     }
     if (k == 2) {
@@ -67,61 +68,69 @@ void ControlLowerer::mc_phase(const LitVec& lits, Angle a) {
         used("cphase");
         const Lit la = lits[0], lb = lits[1];
         const Angle half = a.divided_by(2);
-        sink_.phase(half, {la});
-        sink_.phase(half, {lb});
-        sink_.cx(Lit::pos(la.wire()), lb.wire());
-        sink_.phase(-half, {Lit::make(lb.wire(), la.positive() == lb.positive())});
-        sink_.cx(Lit::pos(la.wire()), lb.wire());
+        sink_->phase(half, {la});
+        sink_->phase(half, {lb});
+        sink_->cx(Lit::pos(la.wire()), lb.wire());
+        sink_->phase(-half, {Lit::make(lb.wire(), la.positive() == lb.positive())});
+        sink_->cx(Lit::pos(la.wire()), lb.wire());
         return;
     }
     const Lit last = lits[k - 1];
     LitVec rest(lits.begin(), lits.end() - 1);
     if (a == pi) {
         // Multi-controlled Z = H MCX H on the last wire.
-        set_choice(fmt::format("mcphase/{}: H-conjugated mcx", k));
-        if (!last.positive()) sink_.x(last.wire());
-        sink_.h(last.wire());
+        // The MCX's own choice (and its metric reason) is what the report shows.
+        if (!last.positive()) sink_->x(last.wire());
+        sink_->h(last.wire());
         mcx(rest, last.wire());
-        sink_.h(last.wire());
-        if (!last.positive()) sink_.x(last.wire());
+        sink_->h(last.wire());
+        if (!last.positive()) sink_->x(last.wire());
         return;
     }
-    std::vector<uint32_t> clean = take_clean(1, wires_of(lits));
+    // The shape of this op for the memo: the sub-ops of and-into-clean use further free wires.
+    std::vector<uint32_t> clean = take_clean(k, wires_of(lits));
+    release_clean(clean);
+    const size_t borrowable = borrow(k, wires_of(lits)).size();
+    std::vector<Candidate> cands;
     if (!clean.empty()) {
         // AND of all but the last literal into a clean wire, then a controlled phase.
-        set_choice(fmt::format("mcphase/{}: AND into clean wire {}", k, c_.wire_name(clean[0])));
-        used("and-into-clean");
-        const uint32_t w = clean[0];
-        const uint32_t pair = rest.size() == 2 ? new_pair() : 0;
-        if (pair) sink_.paired_x(w, rest, pair, ir::PairHalf::Compute);
-        else mcx(rest, w);
-        mc_phase({Lit::pos(w), last}, a);
-        if (pair) sink_.paired_x(w, rest, pair, ir::PairHalf::Uncompute);
-        else mcx(rest, w);
-        release_clean(clean);
-        return;
+        cands.push_back({"and-into-clean", fmt::format("clean wire {}", c_.wire_name(clean[0])), [=, this] {
+                             std::vector<uint32_t> cl = take_clean(1, wires_of(lits));
+                             const uint32_t w = cl[0];
+                             const uint32_t pair = rest.size() == 2 ? new_pair() : 0;
+                             if (pair) sink_->paired_x(w, rest, pair, ir::PairHalf::Compute);
+                             else mcx(rest, w);
+                             mc_phase({Lit::pos(w), last}, a);
+                             if (pair) sink_->paired_x(w, rest, pair, ir::PairHalf::Uncompute);
+                             else mcx(rest, w);
+                             release_clean(cl);
+                         }});
     }
     // e^{ia*A*l} = e^{i(a/2)A} * Lambda_A(Rz(+-a)) on the last wire; Lambda_A(Rz(f)) = Rz(f/2) MCX Rz(-f/2) MCX.
-    set_choice(fmt::format("mcphase/{}: Rz recursion (Barenco et al. Lemma 7.9 form)", k));
-    used("phase-recursion");
-    // One half h (2h = a mod 2*pi) used throughout: halving -a separately could differ by pi.
-    const Angle h = a.divided_by(2);
-    mc_phase(rest, h);
-    const Angle fh = last.positive() ? h : -h;
-    sink_.one(OpKind::RZ, last.wire(), fh);
-    mcx(rest, last.wire());
-    sink_.one(OpKind::RZ, last.wire(), -fh);
-    mcx(rest, last.wire());
+    cands.push_back({"phase-recursion", "Barenco et al. Lemma 7.9 form", [=, this] {
+                         // One half h (2h = a mod 2*pi) used throughout: halving -a separately could differ by pi.
+                         const Angle h = a.divided_by(2);
+                         mc_phase(rest, h);
+                         const Angle fh = last.positive() ? h : -h;
+                         sink_->one(OpKind::RZ, last.wire(), fh);
+                         mcx(rest, last.wire());
+                         sink_->one(OpKind::RZ, last.wire(), -fh);
+                         mcx(rest, last.wire());
+                     }});
+    if (k <= kMaxParityNetworkLiterals)
+        cands.push_back({"phase-polynomial", fmt::format("{}-literal parity network", k),
+                         [=, this] { mc_phase_parity_network(*this, lits, a); }});
+    emit_cheapest(fmt::format("mcphase/{}", k), fmt::format("mcphase/{}/{}/{}/{}", k, clean.size(), borrowable, a.to_string()), cands);
 }
 
 void ControlLowerer::mc_one_qubit(const LitVec& controls, const Op& op) {
     const uint32_t t = op.target;
     const size_t k = controls.size();
-    auto plain = [&](OpKind kind, Angle a = {}) { sink_.one(kind, t, a); };
+    auto plain = [&](OpKind kind, Angle a = {}) { sink_->one(kind, t, a); };
     if (k == 0) {
         Op copy = op;
         copy.controls.clear();
-        sink_.push(copy);
+        sink_->push(copy);
         return;
     }
     LitVec with_t = controls;
@@ -151,16 +160,16 @@ void ControlLowerer::mc_one_qubit(const LitVec& controls, const Op& op) {
     }
     case OpKind::RY: {
         // Ry(f) = S Rx(f) Sdg.
-        sink_.phase(Angle::pi_times(-1, 2), {Lit::pos(t)});
+        sink_->phase(Angle::pi_times(-1, 2), {Lit::pos(t)});
         mc_one_qubit(controls, Op::one(OpKind::RX, t, op.angles[0]));
-        sink_.phase(Angle::pi_times(1, 2), {Lit::pos(t)});
+        sink_->phase(Angle::pi_times(1, 2), {Lit::pos(t)});
         return;
     }
     case OpKind::Y:
         // Y = S X Sdg.
-        sink_.phase(Angle::pi_times(-1, 2), {Lit::pos(t)});
+        sink_->phase(Angle::pi_times(-1, 2), {Lit::pos(t)});
         mcx(controls, t);
-        sink_.phase(Angle::pi_times(1, 2), {Lit::pos(t)});
+        sink_->phase(Angle::pi_times(1, 2), {Lit::pos(t)});
         return;
     default: break;
     }
@@ -174,41 +183,47 @@ void ControlLowerer::mc_one_qubit(const LitVec& controls, const Op& op) {
     if (k == 1) {
         set_choice("controlled-U: ABC decomposition, 2 CNOTs");
         used("abc");
-        sink_.phase(g.alpha, controls);
-        abc_around(sink_, t, g, [&] { sink_.x(t, controls); });
+        sink_->phase(g.alpha, controls);
+        abc_around(*sink_, t, g, [&] { sink_->x(t, controls); });
         return;
     }
-    std::vector<uint32_t> clean = take_clean(1, wires_of(controls, {t}));
+    std::vector<uint32_t> clean = take_clean(k, wires_of(controls, {t}));
+    release_clean(clean);
+    const size_t borrowable = borrow(k, wires_of(controls, {t})).size();
+    std::vector<Candidate> cands;
     if (!clean.empty()) {
-        set_choice(fmt::format("controlled-U/{}: AND into clean wire {}, then ABC", k, c_.wire_name(clean[0])));
-        used("and-into-clean");
-        const uint32_t w = clean[0];
-        const uint32_t pair = k == 2 ? new_pair() : 0;
-        if (pair) sink_.paired_x(w, controls, pair, ir::PairHalf::Compute);
-        else mcx(controls, w);
-        mc_one_qubit({Lit::pos(w)}, op);
-        if (pair) sink_.paired_x(w, controls, pair, ir::PairHalf::Uncompute);
-        else mcx(controls, w);
-        release_clean(clean);
-        return;
+        cands.push_back({"and-into-clean", fmt::format("clean wire {}, then ABC", c_.wire_name(clean[0])), [=, this] {
+                             std::vector<uint32_t> cl = take_clean(1, wires_of(controls, {t}));
+                             const uint32_t w = cl[0];
+                             const uint32_t pair = k == 2 ? new_pair() : 0;
+                             if (pair) sink_->paired_x(w, controls, pair, ir::PairHalf::Compute);
+                             else mcx(controls, w);
+                             mc_one_qubit({Lit::pos(w)}, op);
+                             if (pair) sink_->paired_x(w, controls, pair, ir::PairHalf::Uncompute);
+                             else mcx(controls, w);
+                             release_clean(cl);
+                         }});
     }
-    set_choice(fmt::format("controlled-U/{}: Barenco Lemma 7.9 form (two MCX)", k));
-    used("barenco-su2");
-    mc_phase(controls, g.alpha);
-    abc_around(sink_, t, g, [&] { mcx(controls, t); });
+    cands.push_back({"barenco-su2", "Lemma 7.9 form, two MCX", [=, this] {
+                         mc_phase(controls, g.alpha);
+                         abc_around(*sink_, t, g, [&] { mcx(controls, t); });
+                     }});
+    const std::string key = fmt::format("cu/{}/{}/{}/{}/{}/{}/{}", k, clean.size(), borrowable, g.alpha.to_string(),
+                                        g.beta.to_string(), g.gamma.to_string(), g.delta.to_string());
+    emit_cheapest(fmt::format("controlled-U/{}", k), key, cands);
 }
 
 void ControlLowerer::mc_swap(const LitVec& controls, uint32_t a, uint32_t b) {
     if (controls.empty()) {
-        sink_.push(Op::swap(a, b));
+        sink_->push(Op::swap(a, b));
         return;
     }
     // Fredkin: CNOT(b -> a), MCX(controls & a -> b), CNOT(b -> a).
     LitVec with_a = controls;
     with_a.push_back(Lit::pos(a));
-    sink_.cx(Lit::pos(b), a);
+    sink_->cx(Lit::pos(b), a);
     mcx(with_a, b);
-    sink_.cx(Lit::pos(b), a);
+    sink_->cx(Lit::pos(b), a);
 }
 
 }  // namespace whittle::lowering

@@ -1,4 +1,5 @@
-// The multi-controlled X constructions, one family per file (mcx_clean.cpp, mcx_dirty.cpp, mcx_no_ancilla.cpp).
+// The multi-controlled X constructions, one family per file (mcx_clean.cpp, mcx_dirty.cpp, mcx_no_ancilla.cpp,
+// parity_network.cpp).
 #pragma once
 
 #include <vector>
@@ -27,5 +28,18 @@ void mcx_one_wire_split(ControlLowerer& lw, const ir::LitVec& controls, uint32_t
 /// No free wire: Barenco et al. 1995 Lemma 7.5: C^nX = CV(l_n -> t) C^{n-1}X(-> l_n) CV+(l_n -> t)
 /// C^{n-1}X(-> l_n) C^{n-1}V(-> t) with V = sqrt(X); the sub-ops borrow t or l_n.
 void mcx_no_ancilla(ControlLowerer& lw, const ir::LitVec& controls, uint32_t target);
+
+/// Largest literal count the phase-polynomial form is offered for (its CNOTs grow as 2^k).
+constexpr size_t kMaxParityNetworkLiterals = 8;
+
+/// e^{i*a*AND(lits)} without work wires as a phase polynomial: AND(x_1..x_k) =
+/// 2^{1-k} * sum over non-empty S of (-1)^{|S|+1} XOR_S(x) (an integer identity, checked over all
+/// inputs in the tests), each parity phase placed on the highest wire of S while a Gray-code walk
+/// of CNOTs from the lower wires runs through every subset: 2^k - 1 phases, 2^k - 2 CNOTs, no T
+/// gate but angles a / 2^{k-1}. Negative literals are conjugated by X.
+void mc_phase_parity_network(ControlLowerer& lw, const ir::LitVec& lits, ir::Angle a);
+
+/// target ^= AND(controls) as H, the (n+1)-literal phase network with angle pi, H.
+void mcx_parity_network(ControlLowerer& lw, const ir::LitVec& controls, uint32_t target);
 
 }  // namespace whittle::lowering

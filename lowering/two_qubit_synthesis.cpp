@@ -114,7 +114,13 @@ struct Builder {
             add_cx(t, true);
             return t;
         }
-        // Vatan & Williams 2004 (quant-ph/0308006), three CNOTs in alternating directions.
+        return vatan_williams(x, y, z);
+    }
+
+    /// Vatan & Williams 2004 (quant-ph/0308006): N(x, y, z) in three CNOTs in alternating
+    /// directions, for any coordinates.
+    std::vector<Step> vatan_williams(double x, double y, double z) const {
+        std::vector<Step> t;
         add_cx(t, false);
         t.push_back(local(rz(kPi / 2 - 2 * z), ry(2 * x - kPi / 2)));
         add_cx(t, true);
@@ -163,15 +169,14 @@ struct Builder {
         return out;
     }
 
+    /// Minimal iSWAP count from the coordinates. iSWAP = SWAP * CZ * (S x S), and SWAP commutes with
+    /// CZ and moves across locals by exchanging them, so k iSWAPs realize exactly the classes of
+    /// SWAP^k times a k-CZ circuit: 0 locals, 1 the iSWAP class, 2 the two-CNOT classes (a zero
+    /// coordinate), 3 everything (SWAP times a 3-CNOT circuit). Counts as in Schuch & Siewert 2003,
+    /// quant-ph/0209035 (CNOT needs 2 iSWAPs, any gate 3; from memory); the argument above is ours.
     std::vector<Step> iswap_template(double x, double y, double z) const {
-        const double c[3] = {x, y, z};
         const int zeros = zero(x) + zero(y) + zero(z);
-        int quarters = 0, qi = -1;
-        for (int k = 0; k < 3; ++k)
-            if (quarter(c[k])) {
-                ++quarters;
-                qi = k;
-            }
+        const int quarters = quarter(x) + quarter(y) + quarter(z);
         std::vector<Step> t;
         if (zeros == 3) return t;
         if (zeros == 1 && quarters == 2) {
@@ -180,33 +185,32 @@ struct Builder {
         }
         if (zeros >= 1) {
             std::vector<double> nz;
-            for (double v : c)
+            for (double v : {x, y, z})
                 if (!zero(v)) nz.push_back(v);
             return iswap_pair(nz[0], nz.size() > 1 ? nz[1] : 0.0);
         }
-        // Split off an exact factor: N(x,y,z) = N(first) N(second), each with a zero coordinate.
-        double f[3] = {0, 0, 0}, g[3] = {x, y, z};
-        if (quarters >= 1) {
-            // An iSWAP-class factor on the +-pi/4 coordinate and the next one leaves a zero.
-            const int other = (qi + 1) % 3;
-            f[qi] = c[qi];
-            f[other] = c[other] >= 0 ? kPi / 4 : -kPi / 4;
-            g[qi] = 0;
-            g[other] = c[other] - f[other];
-        } else {
-            f[0] = x;
-            f[1] = y;
-            g[0] = g[1] = 0;
+        // SWAP = e^{-i pi/4} N(pi/4, pi/4, pi/4) up to phase: the 3-CZ part carries c - pi/4.
+        const double q = kPi / 4;
+        return iswap_from_cz(Builder{a, b, Entangler::CZ}.vatan_williams(x - q, y - q, z - q));
+    }
+
+    /// Rewrites a circuit of locals and CZs with an odd number k of CZs into k iSWAPs whose product
+    /// is SWAP times it: each CZ = SWAP * iSWAP * (Sdg x Sdg), and the SWAPs are moved to the end,
+    /// exchanging the wires of every local they pass.
+    std::vector<Step> iswap_from_cz(const std::vector<Step>& cz_steps) const {
+        std::vector<Step> t;
+        bool swapped = false;
+        for (const Step& s : cz_steps) {
+            if (s.local) {
+                t.push_back(swapped ? local(s.lb, s.la) : local(s.la, s.lb));
+                continue;
+            }
+            t.push_back(local(sgate(true), sgate(true)));
+            t.push_back(gate(Op::two(ir::OpKind::ISwap, a, b), a, b));
+            swapped = !swapped;
         }
-        std::vector<Step> first = quarters >= 1 ? std::vector<Step>{gate(Op::two(ir::OpKind::ISwap, a, b), a, b)}
-                                                : iswap_pair(f[0], f[1]);
-        // Each factor is made exact, so the sub-phases belong to the factors, not to the result.
-        double unused = 0;
-        std::vector<Step> out = exactly(canonical_gate(f[0], f[1], f[2]), std::move(first), unused);
-        std::vector<Step> rest = iswap_template(g[0], g[1], g[2]);
-        std::vector<Step> second = exactly(canonical_gate(g[0], g[1], g[2]), std::move(rest), unused);
-        for (Step& s : second) out.push_back(std::move(s));
-        return out;
+        WHITTLE_ASSERT(swapped && "iswap_from_cz needs an odd number of CZs");
+        return t;
     }
 };
 

@@ -18,8 +18,8 @@ struct TwoQubitSynthesis {
 
 /// Gates of (entangler, basis) equal to `u` on wires (a, b) (basis index 2*bit(a) + bit(b)) up to
 /// the returned phase. Entangler counts: CNOT/CZ 0..3 (min_cnot_count); XX(theta) one per non-zero
-/// Weyl coordinate (0..3); iSWAP 0, 1 (iSWAP class), 2 (a zero coordinate), 3 (a +-pi/4
-/// coordinate), else 4 (the general 3-iSWAP form is not implemented).
+/// Weyl coordinate (0..3); iSWAP 0 (local), 1 (iSWAP class), 2 (a zero coordinate), else 3
+/// (SWAP times a three-CZ circuit). Each count is the minimum for the gate's Weyl class.
 TwoQubitSynthesis synthesize_2q(const ir::Mat4& u, uint32_t a, uint32_t b, Entangler e, OneQubitBasis basis);
 
 /// The entangler count synthesize_2q would use.

@@ -83,6 +83,9 @@ TEST_CASE("construction table, n = 3..10 (README)") {
         CHECK(bd.t == 28 * (n - 2));
         CHECK(bd.cnot == 24 * (n - 2));
         CHECK(bp.t < bd.t);
+        // Through -O2 the Lemma 7.2 chain reaches the phase-folding value of CHECKS.md, 12n-20
+        // (Amy, Maslov, Mosca 2014, arXiv:1303.2042; memory, high).
+        CHECK(bp.t == 12 * n - 20);
         CHECK(sp.qubits == n + 2);
         CHECK(na.qubits == n + 1);
     }

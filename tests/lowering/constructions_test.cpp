@@ -66,8 +66,9 @@ TEST_CASE("AND tree under --optimize-for depth: same 2n-3 Toffolis, logarithmic 
         ir::Circuit c = wires(n + 1, n - 2);
         c.ops.push_back(ir::Op::x(n, positive_lits(0, n)));
         ir::Circuit ref = c, chain = c;
-        ir::Resources res = lower(c, passes::Metric::Depth);
-        ir::Resources rc = lower(chain);
+        // On clifford+t (where the shallow-looking phase polynomial is approximated, deep).
+        ir::Resources res = lower(c, passes::Metric::Depth, "clifford+t");
+        ir::Resources rc = lower(chain, passes::Metric::TCount, "clifford+t");
         CHECK(res.toffoli_count == 2 * n - 3);
         CHECK(classically_equal(ref, c));
         if (n >= 6) CHECK(res.depth < rc.depth);
@@ -121,9 +122,17 @@ TEST_CASE("partial V-chain: one clean wire, the rest borrowed") {
         ir::Circuit ref = c;
         passes::PassResult r;
         ir::Resources res = lower(c, passes::Metric::TCount, "", &r);
-        CHECK(stat(r, "partial-v-chain") == 1);
-        // 2 paired Toffolis for the clean wire plus Lemma 7.2 on n-1 controls.
-        CHECK(res.toffoli_count == 2 + 4 * (n - 3));
+        // The partial V-chain competes with Lemma 7.3, whose halves get V-chains on the clean
+        // wire: at n = 5 that split is cheaper in T (60 vs 64) and wins; at n = 4, 6, 7 the chain.
+        REQUIRE(r.constructions.size() == 1);
+        CHECK(r.constructions[0].reason.find("cheapest in T-count") != std::string::npos);
+        if (n != 5) {
+            CHECK(stat(r, "partial-v-chain") == 1);
+            // 2 paired Toffolis for the clean wire plus Lemma 7.2 on n-1 controls.
+            CHECK(res.toffoli_count == 2 + 4 * (n - 3));
+        } else {
+            CHECK(r.constructions[0].method == "one-wire-split");
+        }
         CHECK(classically_equal(ref, c));
     }
 }
