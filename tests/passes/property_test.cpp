@@ -279,7 +279,7 @@ TEST_CASE("cancel's kickback cancellations preserve equivalence on random circui
         INFO(fmt::format("round {}: {} by {}: {}\nbefore:\n{}after:\n{}", round, passes::verdict_name(e.verdict),
                          e.engine, e.counterexample, ir::print_wq(c), ir::print_wq(after)));
         CHECK(e.verdict != Verdict::NotEquivalent);
-        if (c.num_qubits() <= 9 && !o.measurement)
+        if (c.num_qubits() <= 7 && !o.measurement && round < 1000)  // dense: small and few (the long run has 10^4)
             CHECK(test::distance_exact(test::dense_unitary(c), test::dense_unitary(after)) < 1e-9);
         ++checked;
     }
