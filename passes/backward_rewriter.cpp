@@ -2,10 +2,12 @@
 #include "passes/backward_rewriter.h"
 
 #include <algorithm>
+#include <optional>
 #include <unordered_set>
 
 #include "ir/error.h"
 #include "passes/commutation.h"
+#include "passes/kickback.h"
 
 namespace whittle::passes {
 
@@ -18,6 +20,13 @@ constexpr uint32_t kNone = 0xffffffffu;
 struct Slot {
     Op op;
     bool live = true;
+    std::vector<Op> kicked;  ///< kickback ops that follow `op` (see RewriteLimits::kickback)
+};
+
+/// A kickback move made by the walk in progress: `extra` goes right after slot `slot` if it pays.
+struct PendingKick {
+    uint32_t slot;
+    Op extra;
 };
 
 class Rewriter {
@@ -38,6 +47,7 @@ public:
                     s.op.half = ir::PairHalf::None;
                 }
                 out.push_back(std::move(s.op));
+                for (Op& k : s.kicked) out.push_back(std::move(k));
             }
         c_.ops = std::move(out);
         c_.global_phase += global_;
@@ -47,7 +57,7 @@ public:
 private:
     void append(const Op& op) {
         const uint32_t idx = uint32_t(slots_.size());
-        slots_.push_back(Slot{op, true});
+        slots_.push_back(Slot{op, true, {}});
         if (is_fence(op)) fence_ = idx;
         wires_.clear();
         op.wires(wires_);
@@ -79,6 +89,7 @@ private:
         for (size_t i = 0; i < ws.size(); ++i) cur[i] = on_wire_[ws[i]].size();
         Op moved = op;
         ir::Angle g;
+        std::optional<PendingKick> kick;
         uint32_t visited = 0, steps = 0;
         while (visited < limits_.window && steps < 4 * limits_.window) {
             uint32_t j = kNone;
@@ -93,21 +104,63 @@ private:
             ++steps;
             Slot& s = slots_[j];
             if (!s.live) continue;
+            if (!s.kicked.empty()) break;  // its kickback op is not in the wire lists' order: a wall
             ++visited;
             ir::Angle g2 = g;
             added_.clear();
-            Combined how = combine_(s.op, moved, g2, added_, result_);
-            if (how != Combined::No) {
-                note_pairs(s.op, moved, how);
-                if (how == Combined::Vanished) s.live = false;
-                for (uint32_t w : added_) add_wire(j, w);
-                global_ += g2;
-                fired_ = true;
-                return;
+            if (kick) {
+                // Only a vanishing pair pays for the extra op; try the rule on copies first.
+                Op trial = s.op;
+                PassResult scratch;
+                const Combined how = combine_(trial, moved, g2, added_, scratch);
+                if (how != Combined::No) {
+                    const bool pays =
+                        how == Combined::Vanished && estimated_t_cost(kick->extra) <= pair_t_cost(s.op, moved);
+                    if (!pays) break;
+                    for (const auto& [name, n] : scratch.stats) result_.count(name, n);
+                    commit_kick(*kick);
+                    note_pairs(s.op, moved, how);
+                    s.live = false;
+                    global_ += g2;
+                    fired_ = true;
+                    return;
+                }
+            } else {
+                const Combined how = combine_(s.op, moved, g2, added_, result_);
+                if (how != Combined::No) {
+                    note_pairs(s.op, moved, how);
+                    if (how == Combined::Vanished) s.live = false;
+                    for (uint32_t w : added_) add_wire(j, w);
+                    global_ += g2;
+                    fired_ = true;
+                    return;
+                }
             }
-            if (!move_before(s.op, moved, g)) break;
+            if (move_before(s.op, moved, g)) continue;
+            Op extra;
+            if (!limits_.kickback || kick || !kickback_move(s.op, moved, extra)) break;
+            kick = PendingKick{j, std::move(extra)};
         }
         append(op);
+    }
+
+    /// The estimated T-cost of a pair about to vanish, as the lowering could price it.
+    uint64_t pair_t_cost(const Op& a, const Op& b) const {
+        const bool clean_target = a.kind == ir::OpKind::X && a.target < c_.num_qubits() &&
+                                  c_.qubits[a.target].role == ir::Role::Clean;
+        if (limits_.measured_erase && clean_target) return estimated_measured_pair_t_cost(a);
+        return estimated_t_cost(a) + estimated_t_cost(b);
+    }
+
+    void commit_kick(PendingKick& k) {
+        Slot& s = slots_[k.slot];
+        // The kicked-from op now has a new neighbour its compute/uncompute partner does not know of.
+        if (s.op.pair) broken_.insert(s.op.pair);
+        wires_.clear();
+        k.extra.wires(wires_);
+        for (uint32_t w : wires_) add_wire(k.slot, w);
+        s.kicked.push_back(std::move(k.extra));
+        result_.count("kickbacks");
     }
 
     ir::Circuit& c_;

@@ -25,6 +25,15 @@ using CombineRule = std::function<Combined(ir::Op& earlier, const ir::Op& mover,
 struct RewriteLimits {
     /// Live ops sharing a wire with the mover that one walk may visit (keeps the pass O(n * window)).
     uint32_t window = 96;
+    /// Also move the mover across an op it does not commute with by the kickback identity
+    /// (kickback.h), at most once per walk, and keep that move only when the walk then ends with
+    /// the mover vanishing against an earlier op (ops: -2 + 1) and the kickback op's estimated
+    /// T-cost is at most that of the vanished pair. The extra op sits right after the op it was
+    /// kicked from; later walks of the same sweep stop there (the next sweep sees it as any op).
+    bool kickback = false;
+    /// For the kickback price: an X pair into a clean wire may lower to temporary ANDs with a
+    /// measured erase (estimated_measured_pair_t_cost), so it is priced so (--allow-measurement).
+    bool measured_erase = false;
 };
 
 /// Runs one left-to-right sweep: every op is moved back across the ops it commutes with (rules in

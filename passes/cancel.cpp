@@ -1,4 +1,4 @@
-// cancel: both-way sweeps of the backward rewriter with the inverse-pair and merge rule.
+// cancel: both-way sweeps of the backward rewriter with the inverse-pair and merge rule, kickbacks allowed.
 #include "passes/cancel.h"
 
 #include "passes/combine_rules.h"
@@ -6,9 +6,12 @@
 
 namespace whittle::passes {
 
-PassResult cancel(ir::Circuit& c, const PassOptions&) {
+PassResult cancel(ir::Circuit& c, const PassOptions& opts) {
     PassResult result;
-    sweep_both_ways(c, cancel_rule, result);
+    RewriteLimits limits;
+    limits.kickback = true;
+    limits.measured_erase = opts.allow_measurement;
+    sweep_both_ways(c, cancel_rule, result, 4, limits);
     return result;
 }
 

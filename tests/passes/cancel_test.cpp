@@ -50,9 +50,15 @@ TEST_CASE("X-type ops sharing a target commute; a target that is a control block
     c.ops = {cx(0, 2), cx(1, 2), cx(0, 2)};  // same target: commute, outer pair cancels
     c = run(c);
     CHECK(c.ops.size() == 1);
-    c.ops = {cx(0, 1), cx(1, 2), cx(0, 1)};  // target 1 is a control of the middle: nothing moves
+    // Target 1 is a control of the middle op: nothing moves across it by commutation.
+    c.ops = {cx(0, 1), Op::one(OpKind::RX, 2, Angle::pi_times(1, 3), {Lit::pos(1)}), cx(0, 1)};
     c = run(c, false);
     CHECK(c.ops.size() == 3);
+    // With an involution in the middle the kickback identity applies (kickback_test.cpp):
+    // CX(0,1) CX(1,2) CX(0,1) = CX(1,2) CX(0,2).
+    c.ops = {cx(0, 1), cx(1, 2), cx(0, 1)};
+    c = run(c);
+    CHECK(c.ops.size() == 2);
 }
 
 TEST_CASE("an X on a control flips the polarity: X_a CX(a,b) X_a = CX(!a,b) (practice)") {
@@ -76,9 +82,14 @@ TEST_CASE("CZ twice vanishes across a Toffoli on another target; diagonal ops co
     c = run(c);  // CZ(0,1) only meets the Toffoli's controls and another diagonal op
     CHECK(c.ops.size() == 2);
     Op cz02 = Op::phase(Angle::pi_times(1), {Lit::pos(0), Lit::pos(2)});
-    c.ops = {cz02, ccx(Lit::pos(0), Lit::pos(1), 2), cz02};  // the Toffoli's target is on the CZ: blocked
+    Op cs02 = Op::phase(Angle::pi_times(1, 2), {Lit::pos(0), Lit::pos(2)});
+    c.ops = {cs02, ccx(Lit::pos(0), Lit::pos(1), 2), cs02};  // the Toffoli's target is on the CS: blocked
     c = run(c, false);
     CHECK(c.ops.size() == 3);
+    // A CZ there is an involution: the kickback leaves CZ(0,1) and the CZ(0,2) pair vanishes.
+    c.ops = {cz02, ccx(Lit::pos(0), Lit::pos(1), 2), cz02};
+    c = run(c);
+    CHECK(c.ops.size() == 2);
 }
 
 TEST_CASE("rotations about one axis add: RX(pi/3) RX(pi/6) = RX(pi/2); a wrap past 2pi is a global phase") {

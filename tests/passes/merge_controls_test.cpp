@@ -3,6 +3,7 @@
 
 #include "passes/merge_controls.h"
 #include "pass_check.h"
+#include "support/dense_unitary.h"
 
 using namespace whittle;
 using namespace whittle::test;
@@ -15,6 +16,8 @@ Circuit run(Circuit c, bool expect_change = true) {
     CHECK(r.changed == expect_change);
     verify(c);
     CHECK((circuit_unitary(before) - circuit_unitary(c)).norm() < 1e-9);
+    // The independent dense reference (tests/support/dense_unitary.h), global phase included.
+    CHECK(distance_exact(dense_unitary(before), dense_unitary(c)) < 1e-12);
     return c;
 }
 

@@ -2,6 +2,7 @@
 // reference, and every registered pass and pipeline preserves equivalence.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <random>
 
 #include <fmt/format.h>
@@ -238,4 +239,50 @@ TEST_CASE("every -O pipeline preserves equivalence on random circuits") {
         ++checked;
     }
     MESSAGE(fmt::format("{} pipeline runs checked", checked));
+}
+
+TEST_CASE("cancel's kickback cancellations preserve equivalence on random circuits with conjugated ops") {
+    // Random circuits (every op kind, pairs, measurement, conditions) with triples A ; B ; A
+    // inserted on data wires: A = X(t; C), B an X or CZ controlled on t (the kickback pattern,
+    // Nielsen & Chuang ch. 4; practice), so the kickback rule has work to do among everything else.
+    std::mt19937_64 rng(2026);
+    int64_t kicks = 0;
+    int checked = 0;
+    for (int round = 0; round < kRounds; ++round) {
+        test::RandomCircuitOptions o;
+        o.max_registers = 3;
+        o.max_register_size = 3;
+        o.measurement = round % 5 == 4;
+        ir::Circuit c = random_well_formed(rng, o);
+        std::vector<uint32_t> data;
+        for (uint32_t w = 0; w < c.num_qubits(); ++w)
+            if (c.qubits[w].role == ir::Role::Data) data.push_back(w);
+        if (data.size() < 3) continue;
+        for (int k = 0; k < 2; ++k) {
+            std::shuffle(data.begin(), data.end(), rng);
+            const auto lit = [&](uint32_t w) { return ir::Lit::make(w, rng() % 4 != 0); };
+            ir::Op a = ir::Op::x(data[0], {lit(data[1])});
+            if (data.size() > 3 && rng() % 2) a.controls.push_back(lit(data[3]));
+            ir::Op b = rng() % 3 == 0 ? ir::Op::phase(ir::Angle::pi_times(1), {lit(data[0]), lit(data[2])})
+                                      : ir::Op::x(data[2], {lit(data[0])});
+            const size_t at = rng() % (c.ops.size() + 1);
+            const std::vector<ir::Op> triple = rng() % 2 ? std::vector<ir::Op>{a, b, a} : std::vector<ir::Op>{b, a, b};
+            c.ops.insert(c.ops.begin() + std::ptrdiff_t(at), triple.begin(), triple.end());
+        }
+        ir::Circuit after = c;
+        const passes::PassResult r = passes::find_pass("cancel")->run(after, {});
+        ir::verify(after);
+        for (const auto& [name, n] : r.stats)
+            if (name == "kickbacks") kicks += n;
+        CHECK(after.ops.size() <= c.ops.size());
+        const passes::EquivResult e = passes::check_equivalence(c, after);
+        INFO(fmt::format("round {}: {} by {}: {}\nbefore:\n{}after:\n{}", round, passes::verdict_name(e.verdict),
+                         e.engine, e.counterexample, ir::print_wq(c), ir::print_wq(after)));
+        CHECK(e.verdict != Verdict::NotEquivalent);
+        if (c.num_qubits() <= 7 && !o.measurement && round < 1000)  // dense: small and few (the long run has 10^4)
+            CHECK(test::distance_exact(test::dense_unitary(c), test::dense_unitary(after)) < 1e-9);
+        ++checked;
+    }
+    MESSAGE(fmt::format("{} circuits checked, {} kickbacks made", checked, kicks));
+    CHECK(kicks >= checked / 10);
 }

@@ -1,0 +1,83 @@
+// Kickback identity and the T-cost estimate that decides when it pays (see kickback.h).
+#include "passes/kickback.h"
+
+#include <algorithm>
+
+#include "passes/commutation.h"
+
+namespace whittle::passes {
+
+using ir::Lit;
+using ir::Op;
+using ir::OpKind;
+
+namespace {
+
+bool is_involution(const Op& op) {
+    switch (op.kind) {
+    case OpKind::X:
+    case OpKind::Y:
+    case OpKind::H:
+    case OpKind::Swap: return true;
+    case OpKind::Phase: return op.angles[0] == ir::Angle::pi_times(1);
+    default: return false;
+    }
+}
+
+/// `x` = X(t; C), `other` = B controlled on t (see kickback_move); on success `extra` = E.
+bool kick(const Op& x, const Op& other, Op& extra) {
+    if (x.kind != OpKind::X || x.controls.empty() || !is_involution(other)) return false;
+    const uint32_t t = x.target;
+    if (other.target == t || other.target2 == t) return false;
+    int at = -1;
+    for (size_t i = 0; i < other.controls.size(); ++i)
+        if (other.controls[i].wire() == t) {
+            if (at >= 0) return false;
+            at = int(i);
+        }
+    if (at < 0) return false;
+    for (Lit c : x.controls)
+        if (c.wire() == other.target || c.wire() == other.target2) return false;
+    extra = other;
+    extra.pair = 0;
+    extra.half = ir::PairHalf::None;
+    extra.controls.erase(extra.controls.begin() + at);
+    for (Lit c : x.controls) {
+        auto it = std::find_if(extra.controls.begin(), extra.controls.end(), [&](Lit l) { return l.wire() == c.wire(); });
+        if (it == extra.controls.end()) {
+            extra.controls.push_back(c);
+            continue;
+        }
+        if (*it != c) return false;  // D & C is never true: E is the identity (and A, B were orthogonal)
+    }
+    std::sort(extra.controls.begin(), extra.controls.end());
+    return true;
+}
+
+uint64_t toffoli_chain_t(size_t controls) { return controls < 2 ? 0 : 7 * (2 * uint64_t(controls) - 3); }
+
+}  // namespace
+
+bool kickback_move(const Op& earlier, const Op& mover, Op& extra) {
+    if (is_fence(earlier) || is_fence(mover)) return false;
+    return kick(earlier, mover, extra) || kick(mover, earlier, extra);
+}
+
+uint64_t estimated_t_cost(const Op& op) {
+    const size_t k = op.controls.size();
+    switch (op.kind) {
+    case OpKind::X:
+    case OpKind::Y: return toffoli_chain_t(k);
+    case OpKind::Phase: return is_involution(op) && k > 0 ? toffoli_chain_t(k - 1) : 0;
+    case OpKind::H:
+    case OpKind::Swap: return k == 0 ? 0 : toffoli_chain_t(k + 1);
+    default: return 0;
+    }
+}
+
+uint64_t estimated_measured_pair_t_cost(const Op& x) {
+    const size_t k = x.controls.size();
+    return k < 2 ? 0 : 4 * (uint64_t(k) - 1);
+}
+
+}  // namespace whittle::passes
