@@ -82,8 +82,9 @@ const char* format_name(const std::string& kind) {
     return format_of(kind) == frontend::InputFormat::Qasm2 ? "qasm2" : "wq";
 }
 
-// Runs in the child: generate, parse (timed), count, compile (timed per pass). Writes results to fd.
-void measure_child(const std::string& kind, uint64_t n, int fd) {
+// Runs in the child: generate, parse (timed), count, compile (timed per pass; skipped when
+// `compile` is false). Writes results to fd.
+void measure_child(const std::string& kind, uint64_t n, bool compile, int fd) {
     std::string text = make_input(kind, n);
     Measure m;
     m.bytes = double(text.size());
@@ -107,7 +108,8 @@ void measure_child(const std::string& kind, uint64_t n, int fd) {
     po.level = 2;
     t0 = Clock::now();
     c0 = cpu_now();
-    auto records = passes::run_passes(c, passes::pipeline_for(po), po);
+    std::vector<passes::PassRecord> records;
+    if (compile) records = passes::run_passes(c, passes::pipeline_for(po), po);
     m.compile_s = since(t0);
     m.compile_cpu = cpu_now() - c0;
     m.ops_out = c.ops.size();
@@ -124,6 +126,7 @@ void measure_child(const std::string& kind, uint64_t n, int fd) {
 struct Limits {
     double mem_gib = 8;
     unsigned timeout_s = 900;
+    uint64_t compile_max_ops = UINT64_MAX;  ///< larger inputs are parsed and counted only
 };
 
 /// Runs one measurement in a child. Returns "" on success, else why it failed.
@@ -139,7 +142,7 @@ std::string measure(const std::string& kind, uint64_t n, const Limits& limits, M
         setrlimit(RLIMIT_AS, &as);
         alarm(limits.timeout_s);
         try {
-            measure_child(kind, n, fds[1]);
+            measure_child(kind, n, estimated_ops(kind, n) <= limits.compile_max_ops, fds[1]);
         } catch (const std::bad_alloc&) {
             _exit(3);
         } catch (const std::exception& e) {
@@ -192,11 +195,13 @@ std::string scaling(double small_t, double big_t, uint64_t small_ops, uint64_t b
 
 void usage() {
     std::printf(
-        "usage: whittle_bench_compile [--quick] [--only KIND] [--max-ops N] [--mem-limit-gib G] [--timeout S]\n"
+        "usage: whittle_bench_compile [--quick] [--only KIND] [--max-ops N] [--compile-max-ops N]\n"
+        "                             [--mem-limit-gib G] [--timeout S]\n"
         "  KIND: clifford-t, clifford-t-wq, high-level, adder, adder-wq, multiplier\n"
         "  --max-ops N        skip sizes with more than N input ops\n"
         "  --mem-limit-gib G  address-space limit of each measurement (default 8)\n"
-        "  --timeout S        time limit of each measurement in seconds (default 900)\n");
+        "  --timeout S        time limit of each measurement in seconds (default 900)\n"
+        "  --compile-max-ops N  sizes with more input ops are parsed and counted, not compiled\n");
 }
 
 }  // namespace
@@ -223,6 +228,8 @@ int main(int argc, char** argv) {
             max_ops = std::strtoull(argv[++i], nullptr, 10);
         } else if (a == "--mem-limit-gib" && has_value) {
             limits.mem_gib = std::strtod(argv[++i], nullptr);
+        } else if (a == "--compile-max-ops" && has_value) {
+            limits.compile_max_ops = std::strtoull(argv[++i], nullptr, 10);
         } else if (a == "--timeout" && has_value) {
             limits.timeout_s = unsigned(std::strtoul(argv[++i], nullptr, 10));
         } else {
@@ -251,6 +258,14 @@ int main(int argc, char** argv) {
             }
             // `whittle count` is parse plus count; the goal compares the compile's CPU time with it.
             const double count_cpu = m.parse_cpu + (m.count_s - m.parse_s);
+            if (m.passes.empty()) {
+                std::printf("| %s | %s | %llu | %llu | (parse only) | %.1f | %.1f | %.3f | - | - | - | %.0f |\n",
+                            cs.kind.c_str(), format_name(cs.kind), (unsigned long long)n, (unsigned long long)m.ops,
+                            m.bytes / 1e6 / std::max(m.parse_s, 1e-9), m.bytes / 1e6 / std::max(m.parse_cpu, 1e-9),
+                            m.count_s, double(m.peak_kib) * 1024.0 / double(std::max<uint64_t>(m.ops, 1)));
+                std::fflush(stdout);
+                continue;
+            }
             std::printf("| %s | %s | %llu | %llu | %llu | %.1f | %.1f | %.3f | %.2f | %.2f | %.1f | %.0f |\n",
                         cs.kind.c_str(), format_name(cs.kind), (unsigned long long)n, (unsigned long long)m.ops,
                         (unsigned long long)m.ops_out, m.bytes / 1e6 / std::max(m.parse_s, 1e-9),
