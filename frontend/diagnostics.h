@@ -2,6 +2,7 @@
 #pragma once
 
 #include <cstdint>
+#include <deque>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -10,7 +11,8 @@
 
 namespace whittle::frontend {
 
-/// Owns the text of every file read in one run, so diagnostics can show the offending line.
+/// Owns the text of every file read in one run, so diagnostics can show the offending line. Texts
+/// stay at their address while files are added (lexers keep views of them).
 class SourceManager {
 public:
     /// Registers a file's text and returns its id (the SourceLoc::file of locations inside it).
@@ -26,7 +28,7 @@ private:
         std::string name;
         std::string text;
     };
-    std::vector<File> files_;
+    std::deque<File> files_;  // a deque: adding a file never moves the texts that lexers are reading
 };
 
 /// "file:line:column: error: message", then the source line and a caret under the column

@@ -239,9 +239,11 @@ void Elaborator::exec_gate(const File& f, const Stmt& s) {
     ir::SourceLoc loc = f.loc_of(s);
     Angle a[3];
     for (size_t i = 0; i < s.args.size(); ++i) a[i] = eval_angle(f, s.args[i]);
-    std::vector<uint32_t> ws;
+    std::vector<uint32_t>& ws = gate_wires_;
+    ws.clear();
     for (uint32_t t : s.targets) resolve_wires(f, t, ws);
-    std::vector<Op> ops;
+    std::vector<Op>& ops = gate_ops_;
+    ops.clear();
     auto controlled = [&](OpKind k, uint32_t w) {
         check_target_free(w, loc);
         return Op::one(k, w, a[0], ctx_.controls);

@@ -110,6 +110,8 @@ private:
     ir::LitVec lifted_controls_;  ///< `when` controls not applied inside a compute block; still not targets
     uint64_t steps_ = 0;
     mutable BoolExpr scratch_;
+    std::vector<uint32_t> gate_wires_;  ///< exec_gate's buffers (it does not nest): no allocation per gate
+    std::vector<ir::Op> gate_ops_;
 };
 
 }  // namespace whittle::frontend

@@ -25,13 +25,13 @@ std::string stdlib_dir() {
     return WHITTLE_STDLIB_DIR_INSTALL;
 }
 
-ir::Circuit load_text(const std::string& text, const std::string& name, InputFormat format, SourceManager& sm,
+ir::Circuit load_text(std::string text, const std::string& name, InputFormat format, SourceManager& sm,
                       const LoadOptions& opts) {
     if (text.size() > opts.limits.max_file_bytes)
         throw UserError(fmt::format("input is {} bytes, over the limit of {} bytes", text.size(),
                                     opts.limits.max_file_bytes),
                         {}, name);
-    uint32_t id = sm.add(name, text);
+    uint32_t id = sm.add(name, std::move(text));
     if (format == InputFormat::Qasm2) return import_qasm2(sm, id, opts);
     return parse_wq(sm, id, opts);
 }
@@ -46,9 +46,17 @@ ir::Circuit load_file(const std::string& path, SourceManager& sm, const LoadOpti
     if (!ec && size > opts.limits.max_file_bytes)
         throw UserError(fmt::format("input is {} bytes, over the limit of {} bytes", size, opts.limits.max_file_bytes),
                         {}, path);
-    std::ostringstream ss;
-    ss << in.rdbuf();
-    return load_text(ss.str(), path, format, sm, opts);
+    // Read straight into one string of the file's size (no stream buffer and copy of a large input).
+    std::string text;
+    if (!ec) {
+        text.resize(size_t(size));
+        in.read(text.data(), std::streamsize(size));
+        text.resize(size_t(in.gcount()));
+    }
+    std::ostringstream rest;  // whatever the size did not cover (a file that grew, or one without a size)
+    rest << in.rdbuf();
+    text += rest.str();
+    return load_text(std::move(text), path, format, sm, opts);
 }
 
 }  // namespace whittle::frontend

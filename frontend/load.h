@@ -23,8 +23,9 @@ InputFormat format_for_path(const std::string& path);
 /// Reads and elaborates a file. Throws UserError (located) on bad input.
 ir::Circuit load_file(const std::string& path, SourceManager& sm, const LoadOptions& opts = {});
 
-/// Same for text already in memory; `name` is used in diagnostics and for `use` paths.
-ir::Circuit load_text(const std::string& text, const std::string& name, InputFormat format, SourceManager& sm,
+/// Same for text already in memory; `name` is used in diagnostics and for `use` paths. The text is
+/// kept for diagnostics (pass an rvalue to hand it over without a copy).
+ir::Circuit load_text(std::string text, const std::string& name, InputFormat format, SourceManager& sm,
                       const LoadOptions& opts = {});
 
 /// The standard library folder (frontend/stdlib in a build tree, share/whittle/stdlib installed).

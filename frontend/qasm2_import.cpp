@@ -5,6 +5,7 @@
 #include <filesystem>
 #include <fstream>
 #include <sstream>
+#include <string_view>
 #include <unordered_map>
 
 #include <fmt/format.h>
@@ -53,6 +54,12 @@ struct QArg {
     SourceLoc loc;
 };
 
+/// Hashes std::string and std::string_view alike, so maps keyed by name are searched with token views.
+struct NameHash {
+    using is_transparent = void;
+    size_t operator()(std::string_view s) const { return std::hash<std::string_view>{}(s); }
+};
+
 /// The callee of a gate statement: a user definition or a header gate.
 struct Callee {
     const GateDef* user = nullptr;
@@ -98,11 +105,15 @@ private:
     }
 
     void parse_file(uint32_t file_id, bool main) {
+        // A gate statement is at least ~8 bytes ("h q[0];\n"): reserving for that many ops up front
+        // saves the copies of a growing vector (untouched reserved pages cost no memory).
+        if (main) c_.ops.reserve(std::min<size_t>(sm_.text(file_id).size() / 8, opts_.limits.max_ops));
         Lexer lx(sm_.text(file_id), file_id);
         if (lx.peek().kind == Tok::Ident && lx.peek().text == "OPENQASM") {
             lx.take();
             Token ver = lx.take();
-            if ((ver.kind != Tok::Real && ver.kind != Tok::Int) || Value::parse_literal(ver.text).to_double() != 2.0)
+            if ((ver.kind != Tok::Real && ver.kind != Tok::Int) ||
+                Value::parse_literal(std::string(ver.text)).to_double() != 2.0)
                 throw UserError(fmt::format("only OpenQASM 2.0 is read here, not version {}", ver.text.empty() ? describe(ver) : ver.text),
                                 ver.loc);
             expect(lx, Tok::Semi, "after the version");
@@ -116,7 +127,7 @@ private:
         const Token& t = lx.peek();
         if (t.kind != Tok::Ident)
             throw UserError(fmt::format("expected a statement but found {}", describe(t)), t.loc);
-        const std::string& w = t.text;
+        const std::string_view w = t.text;
         if (w == "include") return include(lx, file_id);
         if (w == "qreg" || w == "creg") return declare_register(lx);
         if (w == "gate" || w == "opaque") return define_gate(lx);
@@ -136,20 +147,21 @@ private:
         if (name.text == "qelib1.inc") {
             if (qelib1_) return;
             for (const HeaderGate& g : qasm2::header_gates()) {
-                auto it = gates_.find(g.name);
+                auto it = gates_.find(std::string_view(g.name));
                 if (!g.builtin && it != gates_.end())
                     throw UserError(fmt::format("qelib1.inc defines '{}', which is already defined at {}:{}", g.name,
                                                 it->second.loc.line, it->second.loc.column),
                                     name.loc);
             }
             qelib1_ = true;
+            callees_.clear();
             return;
         }
         if (include_stack_.size() >= opts_.limits.max_recursion)
             throw UserError(fmt::format("includes nested deeper than {} levels", opts_.limits.max_recursion), name.loc);
         namespace fs = std::filesystem;
-        std::vector<fs::path> candidates{fs::path(sm_.name(file_id)).parent_path() / name.text};
-        for (const std::string& d : opts_.include_dirs) candidates.push_back(fs::path(d) / name.text);
+        std::vector<fs::path> candidates{fs::path(sm_.name(file_id)).parent_path() / fs::path(name.text)};
+        for (const std::string& d : opts_.include_dirs) candidates.push_back(fs::path(d) / fs::path(name.text));
         std::error_code ec;
         for (const fs::path& p : candidates) {
             if (!fs::is_regular_file(p, ec)) continue;
@@ -186,11 +198,11 @@ private:
         if (kw.text == "qreg") {
             if (size + c_.num_qubits() > limit)
                 throw UserError(fmt::format("the program declares more than {} qubits", limit), size_tok.loc);
-            c_.add_register(name.text, uint32_t(size), ir::Role::Data);
+            c_.add_register(std::string(name.text), uint32_t(size), ir::Role::Data);
         } else {
             if (size + c_.num_cbits > limit)
                 throw UserError(fmt::format("the program declares more than {} classical bits", limit), size_tok.loc);
-            c_.add_creg(name.text, uint32_t(size));
+            c_.add_creg(std::string(name.text), uint32_t(size));
         }
     }
 
@@ -206,7 +218,7 @@ private:
             Token id = expect(lx, Tok::Ident, fmt::format("in the {} list", what).c_str());
             for (const std::string& s : out)
                 if (s == id.text) throw UserError(fmt::format("{} '{}' is listed twice", what, id.text), id.loc);
-            out.push_back(id.text);
+            out.emplace_back(id.text);
             if (lx.peek().kind != Tok::Comma) return out;
             lx.take();
         }
@@ -217,10 +229,10 @@ private:
         Token name = expect(lx, Tok::Ident, fmt::format("after '{}'", kw.text).c_str());
         if (name.text == "U" || name.text == "CX")
             throw UserError(fmt::format("'{}' is a builtin gate and cannot be redefined", name.text), name.loc);
-        if (gates_.count(name.text) || (qelib1_ && qasm2::find_header_gate(name.text)))
+        if (gates_.find(name.text) != gates_.end() || (qelib1_ && qasm2::find_header_gate(name.text)))
             throw UserError(fmt::format("gate '{}' is already defined", name.text), name.loc);
         GateDef def;
-        def.name = name.text;
+        def.name = std::string(name.text);
         def.loc = name.loc;
         def.opaque = kw.text == "opaque";
         std::vector<std::string> params;
@@ -242,6 +254,7 @@ private:
             expect(lx, Tok::Semi, "after the opaque gate declaration");
             std::string key = def.name;
             gates_.emplace(std::move(key), std::move(def));
+            callees_.clear();
             return;
         }
         expect(lx, Tok::LBrace, "to open the gate body");
@@ -252,12 +265,13 @@ private:
         lx.take();
         std::string key = def.name;
         gates_.emplace(std::move(key), std::move(def));
+        callees_.clear();
     }
 
     BodyOp body_op(Lexer& lx, GateDef& def, const std::vector<std::string>& params, const std::vector<std::string>& qubits) {
         Token name = expect(lx, Tok::Ident, "in the gate body");
         BodyOp op;
-        op.name = name.text;
+        op.name = std::string(name.text);
         op.loc = name.loc;
         auto qubit_arg = [&]() {
             Token q = expect(lx, Tok::Ident, "as a qubit argument");
@@ -307,7 +321,17 @@ private:
         return op;
     }
 
+    /// The callee named by a gate statement. Resolved names are remembered until a definition,
+    /// the header or a register changes what a name means, so a long program looks each name up once.
     Callee find_callee(const Token& name) {
+        auto hit = callees_.find(name.text);
+        if (hit != callees_.end()) return hit->second;
+        Callee c = resolve_callee(name);
+        callees_.emplace(std::string(name.text), c);
+        return c;
+    }
+
+    Callee resolve_callee(const Token& name) {
         Callee c;
         auto it = gates_.find(name.text);
         if (it != gates_.end()) {
@@ -353,7 +377,7 @@ private:
         return a;
     }
 
-    int64_t index_suffix(Lexer& lx, const std::string& reg, uint32_t size) {
+    int64_t index_suffix(Lexer& lx, std::string_view reg, uint32_t size) {
         if (lx.peek().kind != Tok::LBracket) return -1;
         lx.take();
         Token idx = lx.take();
@@ -459,7 +483,9 @@ private:
     void gate_statement(Lexer& lx) {
         Token name = lx.take();
         Callee callee = find_callee(name);
-        std::vector<Value> params;
+        // Top-level statements do not nest, so their argument lists reuse the importer's buffers.
+        std::vector<Value>& params = stmt_params_;
+        params.clear();
         if (lx.peek().kind == Tok::LParen) {
             lx.take();
             if (lx.peek().kind != Tok::RParen) {
@@ -475,7 +501,8 @@ private:
             expect(lx, Tok::RParen, "after the gate parameters");
         }
         check_param_count(callee, name, params.size());
-        std::vector<QArg> args;
+        std::vector<QArg>& args = stmt_args_;
+        args.clear();
         if (lx.peek().kind != Tok::Ident)
             throw UserError(fmt::format("expected the qubits of gate '{}' but found {}", name.text, describe(lx.peek())), lx.peek().loc);
         for (;;) {
@@ -499,7 +526,8 @@ private:
             if (!first_whole) first_whole = &a;
             n = size;
         }
-        std::vector<uint32_t> wires(args.size());
+        std::vector<uint32_t>& wires = stmt_wires_;
+        wires.assign(args.size(), 0);
         for (uint32_t k = 0; k < n; ++k) {
             for (size_t i = 0; i < args.size(); ++i) {
                 const ir::Register& r = c_.registers[size_t(args[i].reg)];
@@ -517,10 +545,13 @@ private:
     void call(const Callee& callee, const SourceLoc& loc, const std::vector<Value>& params,
               const std::vector<uint32_t>& wires, uint32_t depth) {
         if (callee.header) {
-            tmp_.clear();
-            ir::Angle gp = qasm2::append_header_gate(*callee.header, params, wires.data(), tmp_);
-            if (cond_reg_ < 0) c_.global_phase += gp;  // a phase under a classical condition is unobservable
-            for (ir::Op& op : tmp_) push(std::move(op));
+            const size_t first = c_.ops.size();
+            if (first >= opts_.limits.max_ops) throw too_many_ops();
+            ir::Angle gp = qasm2::append_header_gate(*callee.header, params, wires.data(), c_.ops);
+            if (c_.ops.size() > opts_.limits.max_ops) throw too_many_ops();
+            // A phase under a classical condition is unobservable; adding an exact 0 changes nothing.
+            if (cond_reg_ < 0 && !(gp.is_exact() && gp.num() == 0)) c_.global_phase += gp;
+            for (size_t i = first; i < c_.ops.size(); ++i) stamp(c_.ops[i]);  // header gates make no barriers
             return;
         }
         const GateDef& def = *callee.user;
@@ -549,26 +580,37 @@ private:
         }
     }
 
-    void push(ir::Op op) {
-        if (c_.ops.size() >= opts_.limits.max_ops)
-            throw UserError(fmt::format("the program expands to more than {} operations", opts_.limits.max_ops), stmt_loc_);
+    UserError too_many_ops() const {
+        return UserError(fmt::format("the program expands to more than {} operations", opts_.limits.max_ops), stmt_loc_);
+    }
+
+    /// Gives an op of the current statement its location and condition.
+    void stamp(ir::Op& op) const {
         op.loc = stmt_loc_;
         if (cond_reg_ >= 0) {
-            if (op.kind == ir::OpKind::Barrier) return;  // a barrier under a condition orders nothing extra
             op.cond_reg = cond_reg_;
             op.cond_value = cond_value_;
         }
+    }
+
+    void push(ir::Op op) {
+        if (c_.ops.size() >= opts_.limits.max_ops) throw too_many_ops();
+        if (cond_reg_ >= 0 && op.kind == ir::OpKind::Barrier) return;  // a barrier under a condition orders nothing extra
+        stamp(op);
         c_.ops.push_back(std::move(op));
     }
 
     SourceManager& sm_;
     const LoadOptions& opts_;
     ir::Circuit c_;
-    std::unordered_map<std::string, GateDef> gates_;
+    std::unordered_map<std::string, GateDef, NameHash, std::equal_to<>> gates_;
+    std::unordered_map<std::string, Callee, NameHash, std::equal_to<>> callees_;
     bool qelib1_ = false;
     std::vector<std::string> include_stack_;
     ExprArena scratch_;
-    std::vector<ir::Op> tmp_;
+    std::vector<Value> stmt_params_;
+    std::vector<QArg> stmt_args_;
+    std::vector<uint32_t> stmt_wires_;
     int cond_reg_ = -1;
     uint64_t cond_value_ = 0;
     SourceLoc stmt_loc_;

@@ -137,9 +137,13 @@ Token Lexer::next(bool skip_newlines) {
         }
     }
     if (ch >= '0' && ch <= '9') {
+        // Only digits followed by '.', 'e' or 'E' can be a decimal; plain integers skip that attempt.
+        const char* digits_end = pos_;
+        while (digits_end != end_ && *digits_end >= '0' && *digits_end <= '9') ++digits_end;
+        const bool maybe_real = digits_end != end_ && (*digits_end == '.' || *digits_end == 'e' || *digits_end == 'E');
         const char* p = pos_;
         double d = 0;
-        if (x3::parse(p, end_, decimal, d)) {
+        if (maybe_real && x3::parse(p, end_, decimal, d)) {
             std::string_view s(start, size_t(p - start));
             if (s.find_first_of(".eE") != std::string_view::npos) {
                 pos_ = p;

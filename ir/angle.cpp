@@ -39,26 +39,24 @@ Angle Angle::pi_times(int64_t num, int64_t den) {
     Angle a;
     a.num_ = num;
     a.den_ = den;
-    a.rad_ = 0.0;
     return a;
 }
 
 Angle Angle::radians(double r) {
     Angle a;
-    a.num_ = 0;
     a.den_ = 0;
-    a.rad_ = std::isfinite(r) ? reduce_radians(r) : 0.0;
+    a.set_rad(std::isfinite(r) ? reduce_radians(r) : 0.0);
     return a;
 }
 
 double Angle::to_radians() const {
-    if (!is_exact()) return rad_;
+    if (!is_exact()) return rad();
     return double(num_) / double(den_) * (kTwoPi / 2);
 }
 
 bool Angle::is_zero() const {
     if (is_exact()) return num_ == 0;
-    return rad_ < 1e-12 || kTwoPi - rad_ < 1e-12;
+    return rad() < 1e-12 || kTwoPi - rad() < 1e-12;
 }
 
 bool Angle::is_multiple_of_pi_over(int64_t d) const {
@@ -73,7 +71,7 @@ int Angle::eighths() const {
 
 Angle Angle::operator-() const {
     if (is_exact()) return pi_times(-num_, den_);
-    return radians(-rad_);
+    return radians(-rad());
 }
 
 Angle Angle::operator+(const Angle& o) const {
@@ -91,7 +89,7 @@ Angle Angle::operator*(int64_t k) const {
         int64_t kk = k % (2 * den_);
         return pi_times(num_ * kk, den_);
     }
-    return radians(rad_ * double(k));
+    return radians(rad() * double(k));
 }
 
 Angle Angle::divided_by(int64_t k) const {
@@ -108,7 +106,7 @@ bool Angle::operator==(const Angle& o) const {
 
 std::string Angle::to_string() const {
     if (!is_exact()) {
-        double r = rad_ > kTwoPi / 2 ? rad_ - kTwoPi : rad_;
+        double r = rad() > kTwoPi / 2 ? rad() - kTwoPi : rad();
         std::string s = fmt::format("{:.17g}", r);
         if (s.find_first_of(".e") == std::string::npos) s += ".0";
         return s;

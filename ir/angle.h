@@ -1,6 +1,7 @@
 // Angle: an exact rational multiple of pi where the source was exact, a double (radians) otherwise.
 #pragma once
 
+#include <bit>
 #include <cstdint>
 #include <string>
 
@@ -17,8 +18,9 @@ public:
     static Angle radians(double r);
 
     bool is_exact() const { return den_ != 0; }
-    /// Numerator and denominator of the exact form (num in [0, 2*den)); only for exact angles.
-    int64_t num() const { return num_; }
+    /// Numerator and denominator of the exact form (num in [0, 2*den)); only for exact angles
+    /// (an inexact angle reads as 0 / 0).
+    int64_t num() const { return is_exact() ? num_ : 0; }
     int64_t den() const { return den_; }
     double to_radians() const;
 
@@ -46,9 +48,12 @@ public:
     std::string to_string() const;
 
 private:
-    int64_t num_ = 0;
-    int64_t den_ = 1;   // 0 marks an inexact angle
-    double rad_ = 0.0;  // used only when inexact
+    // 16 bytes (an ir::Op holds three): an inexact angle keeps its radians' bits in num_'s place.
+    double rad() const { return std::bit_cast<double>(num_); }
+    void set_rad(double r) { num_ = std::bit_cast<int64_t>(r); }
+
+    int64_t num_ = 0;  // exact: the numerator; inexact: the bits of the radians
+    int64_t den_ = 1;  // 0 marks an inexact angle
 };
 
 }  // namespace whittle::ir

@@ -170,13 +170,13 @@ std::string Circuit::wire_name(uint32_t wire) const {
     return fmt::format("{}[{}]", r.name, q.index);
 }
 
-int Circuit::find_register(const std::string& name) const {
+int Circuit::find_register(std::string_view name) const {
     for (size_t i = 0; i < registers.size(); ++i)
         if (registers[i].name == name) return int(i);
     return -1;
 }
 
-int Circuit::find_creg(const std::string& name) const {
+int Circuit::find_creg(std::string_view name) const {
     for (size_t i = 0; i < cregs.size(); ++i)
         if (cregs[i].name == name) return int(i);
     return -1;

@@ -3,6 +3,7 @@
 
 #include <cstdint>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include <boost/container/small_vector.hpp>
@@ -92,15 +93,16 @@ enum class PairHalf : uint8_t { None, Compute, Uncompute };
 
 constexpr uint32_t kNoWire = 0xffffffffu;
 
+/// Fields ordered so that no padding sits between them (the op vector dominates memory at scale).
 struct Op {
     OpKind kind = OpKind::X;
     PairHalf half = PairHalf::None;
     uint32_t target = kNoWire;
     uint32_t target2 = kNoWire;  ///< Swap, ISwap, XX
+    uint32_t pair = 0;           ///< compute/uncompute pair id (0 = none)
     /// angles[0]: Phase/Parity/RX/RY/RZ/XX angle, U theta, R theta; angles[1]: U phi, R phi; angles[2]: U lambda.
     Angle angles[3];
     LitVec controls;             ///< control literals (sorted by wire after normalize); see OpKind for Parity/Barrier
-    uint32_t pair = 0;           ///< compute/uncompute pair id (0 = none)
     int32_t cbit = -1;           ///< Measure: the classical bit written
     int32_t cond_reg = -1;       ///< classically conditioned: index of the classical register (-1 = unconditioned)
     uint64_t cond_value = 0;     ///< the op runs when that register's value equals cond_value
@@ -147,8 +149,8 @@ public:
     /// "a[3]" or, for a scalar register, "flag".
     std::string wire_name(uint32_t wire) const;
     /// Index of the register with this name, or -1.
-    int find_register(const std::string& name) const;
-    int find_creg(const std::string& name) const;
+    int find_register(std::string_view name) const;
+    int find_creg(std::string_view name) const;
     /// A fresh compute/uncompute pair id.
     uint32_t new_pair_id() { return next_pair_id++; }
     /// Same qubits, registers and files, no ops.

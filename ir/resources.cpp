@@ -83,10 +83,21 @@ Resources count_resources(const Circuit& c) {
     }
     std::vector<uint64_t> layer(c.num_qubits(), 0), tlayer(c.num_qubits(), 0);
     std::vector<uint32_t> wires;
-    for (const Op& op : c.ops) {
+    // gate_name depends only on the kind, the number of controls (0, 1, 2, 3, more) and, for
+    // phases, the angle in eighths of pi: ops are tallied by that key and named once per key at
+    // the end, instead of building a string and searching the map for every op.
+    constexpr size_t kControlClasses = 5, kEighths = 9;
+    constexpr size_t kKeys = (size_t(OpKind::Barrier) + 1) * kControlClasses * kEighths;
+    std::vector<uint64_t> tally(kKeys, 0);
+    std::vector<size_t> example(kKeys, 0);
+    for (size_t i = 0; i < c.ops.size(); ++i) {
+        const Op& op = c.ops[i];
         if (op.kind == OpKind::Barrier) continue;
         ++r.ops;
-        ++r.gates[gate_name(op)];
+        const size_t controls = std::min<size_t>(op.controls.size(), kControlClasses - 1);
+        const size_t eighth = op.kind == OpKind::Phase ? size_t(op.angles[0].eighths() + 1) : 0;
+        const size_t key = (size_t(op.kind) * kControlClasses + controls) * kEighths + eighth;
+        if (tally[key]++ == 0) example[key] = i;
         wires.clear();
         op.wires(wires);
         const bool t = is_t_like(op);
@@ -113,6 +124,8 @@ Resources count_resources(const Circuit& c) {
         r.depth = std::max(r.depth, l);
         r.t_depth = std::max(r.t_depth, tl);
     }
+    for (size_t key = 0; key < kKeys; ++key)
+        if (tally[key] != 0) r.gates[gate_name(c.ops[example[key]])] += tally[key];
     return r;
 }
 

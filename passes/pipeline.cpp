@@ -1,6 +1,8 @@
 // The pipelines for each -O level, written out in one place, and the pass runner.
 #include "passes/pipeline.h"
 
+#include <time.h>
+
 #include <chrono>
 
 #include <fmt/format.h>
@@ -10,6 +12,16 @@
 #include "passes/registry.h"
 
 namespace whittle::passes {
+namespace {
+
+/// CPU seconds used so far by the calling thread.
+double thread_cpu_seconds() {
+    timespec ts{};
+    clock_gettime(CLOCK_THREAD_CPUTIME_ID, &ts);
+    return double(ts.tv_sec) + double(ts.tv_nsec) * 1e-9;
+}
+
+}  // namespace
 
 std::vector<std::string> pipeline_for(const PassOptions& opts) {
     std::vector<std::string> p;
@@ -95,7 +107,9 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
         ir::Circuit snapshot;
         if (hooks.verify) snapshot = c;
         auto t0 = std::chrono::steady_clock::now();
+        const double cpu0 = thread_cpu_seconds();
         rec.result = info->run(c, opts);
+        rec.cpu_seconds = thread_cpu_seconds() - cpu0;
         rec.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
         rec.changed = rec.result.changed;
         ir::verify(c);

@@ -20,7 +20,8 @@ struct PassRecord {
     size_t ops_before = 0, ops_after = 0;
     int64_t t_before = 0, t_after = 0;
     int64_t cnot_before = 0, cnot_after = 0;
-    double seconds = 0;
+    double seconds = 0;      ///< wall time of the pass
+    double cpu_seconds = 0;  ///< CPU time of the pass on its thread (meaningful on a busy machine)
     std::string checked_by;  ///< equivalence engine that validated this pass under --verify ("" = unchecked)
     PassResult result;
 };

@@ -1,6 +1,13 @@
-// `whittle compile`: read, optimize, lower, check and emit.
+// `whittle compile`: read, optimize, lower, check and emit; several inputs compile in parallel (-j).
+#include <algorithm>
+#include <atomic>
+#include <filesystem>
 #include <iostream>
+#include <map>
 #include <memory>
+#include <mutex>
+#include <sstream>
+#include <thread>
 
 #include <fmt/format.h>
 
@@ -18,8 +25,9 @@ namespace whittle::cli {
 namespace {
 
 struct CompileArgs {
-    std::string input;
+    std::vector<std::string> inputs;
     std::string output;
+    unsigned jobs = 1;
     std::string target;
     int level = 2;
     std::string optimize_for = "t";
@@ -37,11 +45,19 @@ struct CompileArgs {
     std::vector<std::string> include_dirs;
 };
 
-std::string emit_format(const CompileArgs& a) {
+/// One compile: an input and where its output goes ("" = stdout), and the tag that keeps its
+/// --verify failure files apart from the other inputs' in a batch.
+struct Job {
+    std::string input;
+    std::string output;
+    std::string verify_tag;
+};
+
+std::string emit_format(const CompileArgs& a, const std::string& output) {
     if (!a.emit.empty()) return a.emit;
     auto ends = [&](const char* ext) {
         std::string e(ext);
-        return a.output.size() >= e.size() && a.output.compare(a.output.size() - e.size(), e.size(), e) == 0;
+        return output.size() >= e.size() && output.compare(output.size() - e.size(), e.size(), e) == 0;
     };
     if (ends(".qasm3")) return "qasm3";
     if (ends(".qasm")) return "qasm2";
@@ -55,13 +71,14 @@ passes::Metric parse_metric(const std::string& s) {
     throw UserError(fmt::format("--optimize-for takes t, 2q or depth, not '{}'", s));
 }
 
-int run_compile(const CompileArgs& a) {
+/// Compiles one input; diagnostics and --stats / --dump-after text go to `err`.
+int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::ostream& err) {
     frontend::SourceManager sm;
     return guarded(sm, [&]() -> int {
-        refuse_overwriting_input(a.input, a.output);
+        refuse_overwriting_input(job.input, job.output);
         frontend::LoadOptions lo;
         lo.include_dirs = a.include_dirs;
-        ir::Circuit c = frontend::load_file(a.input, sm, lo);
+        ir::Circuit c = frontend::load_file(job.input, sm, lo);
 
         passes::PassOptions po;
         po.target = a.target;
@@ -76,21 +93,21 @@ int run_compile(const CompileArgs& a) {
         if (!a.dump_after.empty()) {
             hooks.after_pass = [&](const std::string& name, const ir::Circuit& now) {
                 for (const std::string& d : a.dump_after)
-                    if (d == name || d == "all") std::cerr << "# after " << name << "\n" << ir::print_wq(now);
+                    if (d == name || d == "all") err << "# after " << name << "\n" << ir::print_wq(now);
             };
         }
         // The input as read, kept for the report's "input_resources" only when a report is asked for.
         ir::Circuit source;
         if (!a.report.empty()) source = c;
-        if (a.verify) hooks.verify = PassVerifier(verify_folder_for(a.output), passes::EquivOptions{});
-        ProgressLine progress(!a.quiet);
+        if (a.verify) hooks.verify = PassVerifier(verify_folder_for(job.output), passes::EquivOptions{}, job.verify_tag);
+        ProgressLine progress(show_progress);
         hooks.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
         std::vector<passes::PassRecord> records;
         try {
             records = passes::run_passes(c, names, po, hooks);
         } catch (const VerifyFailure& failure) {
             progress.finish();
-            std::cerr << failure.what();
+            err << failure.what();
             return kCheckFailed;
         }
         progress.finish();
@@ -102,10 +119,10 @@ int run_compile(const CompileArgs& a) {
                 if (a.time_passes) line += fmt::format(" {:9.3f} ms", r.seconds * 1e3);
                 if (a.stats)
                     for (const auto& [k, v] : r.result.stats) line += fmt::format(" {}={}", k, v);
-                std::cerr << line << "\n";
+                err << line << "\n";
             }
         }
-        std::string format = emit_format(a);
+        std::string format = emit_format(a, job.output);
         std::string text;
         if (format == "wq") text = ir::print_wq(c);
         else if (format == "qasm2") text = lowering::emit_qasm2(c);
@@ -113,7 +130,7 @@ int run_compile(const CompileArgs& a) {
         else throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", format));
         if (!a.report.empty()) {
             lowering::CompileReportInput ri;
-            ri.input = a.input;
+            ri.input = job.input;
             ri.source = &source;
             ri.output = &c;
             ri.options = po;
@@ -121,12 +138,84 @@ int run_compile(const CompileArgs& a) {
             ri.emit = format;
             ri.verify = a.verify;
             ri.records = std::move(records);
-            refuse_overwriting_input(a.input, a.report);
+            refuse_overwriting_input(job.input, a.report);
             write_output(a.report, lowering::compile_report(ri).dump(2) + "\n");
         }
-        write_output(a.output, text);
+        write_output(job.output, text);
+        return kOk;
+    }, err);
+}
+
+/// The file extension of an output in --emit's format (batch outputs are named stem + this).
+const char* extension_of(const std::string& emit) {
+    if (emit == "qasm2") return ".qasm";
+    if (emit == "qasm3") return ".qasm3";
+    if (emit.empty() || emit == "wq") return ".wq";
+    throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", emit));
+}
+
+/// The jobs of a batch: one output per input in the folder `a.output`, named by the input's stem.
+/// Two inputs with one stem would write one file, so that is refused before anything runs.
+std::vector<Job> batch_jobs(const CompileArgs& a) {
+    namespace fs = std::filesystem;
+    if (a.output.empty() || a.output == "-")
+        throw UserError("several inputs need -o FOLDER: each output is written there as the input's name with the --emit extension");
+    if (!a.report.empty() && a.inputs.size() > 1)
+        throw UserError("--report takes one input; run the inputs one at a time to get a report each");
+    std::error_code ec;
+    if (!fs::is_directory(a.output, ec))
+        throw UserError(fmt::format("-o '{}' must be an existing folder when several inputs are given", a.output));
+    const std::string ext = extension_of(a.emit);
+    std::vector<Job> jobs;
+    std::map<std::string, std::string> by_output;
+    for (const std::string& in : a.inputs) {
+        const std::string stem = fs::path(in).stem().string();
+        Job job{in, (fs::path(a.output) / (stem + ext)).string(), stem + "-"};
+        auto [it, fresh] = by_output.emplace(job.output, in);
+        if (!fresh)
+            throw UserError(fmt::format("inputs '{}' and '{}' would both write '{}'; give them different names", it->second, in,
+                                        job.output));
+        jobs.push_back(std::move(job));
+    }
+    return jobs;
+}
+
+/// Runs the jobs on `a.jobs` threads. Each job's messages are printed whole when it ends, so the
+/// lines of two files never interleave. The exit code is the worst of the jobs' (2 over 1 over 0).
+int run_batch(const CompileArgs& a, const std::vector<Job>& jobs) {
+    std::atomic<size_t> next{0};
+    std::mutex print_mutex;
+    int worst = kOk;
+    auto worker = [&]() {
+        for (size_t i = next++; i < jobs.size(); i = next++) {
+            std::ostringstream err;
+            int rc = compile_one(a, jobs[i], false, err);
+            std::lock_guard<std::mutex> lock(print_mutex);
+            std::cerr << err.str();
+            std::cerr.flush();
+            worst = std::max(worst, rc);
+        }
+    };
+    const size_t threads = std::min<size_t>(std::max(1u, a.jobs), jobs.size());
+    std::vector<std::thread> pool;
+    for (size_t t = 1; t < threads; ++t) pool.emplace_back(worker);
+    worker();
+    for (std::thread& t : pool) t.join();
+    return worst;
+}
+
+int run_compile(const CompileArgs& a) {
+    std::error_code ec;
+    const bool one = a.inputs.size() == 1 && !std::filesystem::is_directory(a.output, ec);
+    if (one) return compile_one(a, Job{a.inputs[0], a.output, ""}, !a.quiet, std::cerr);
+    std::vector<Job> jobs;
+    frontend::SourceManager no_sources;
+    int rc = guarded(no_sources, [&]() -> int {
+        jobs = batch_jobs(a);
         return kOk;
     });
+    if (rc != kOk) return rc;
+    return run_batch(a, jobs);
 }
 
 }  // namespace
@@ -134,8 +223,15 @@ int run_compile(const CompileArgs& a) {
 void add_compile_command(CLI::App& app, int& exit_code) {
     auto args = std::make_shared<CompileArgs>();
     CLI::App* cmd = app.add_subcommand("compile", "optimize and lower a program, then emit it");
-    cmd->add_option("input", args->input, "program to compile (.wq or .qasm)")->required();
-    cmd->add_option("-o,--output", args->output, "output file (format by extension: .wq, .qasm, .qasm3); stdout when absent");
+    cmd->add_option("input", args->inputs,
+                    "program(s) to compile (.wq or .qasm); several inputs need -o FOLDER and compile in parallel with -j")
+        ->required();
+    cmd->add_option("-o,--output", args->output,
+                    "output file (format by extension: .wq, .qasm, .qasm3); stdout when absent. With several inputs, "
+                    "or when it is an existing folder: the folder that gets one output per input, named by the "
+                    "input's stem and the --emit extension (.wq by default)");
+    cmd->add_option("-j,--jobs", args->jobs, "compile up to N inputs at once (threads; default 1)")
+        ->check(CLI::Range(1u, 1024u));
     cmd->add_option("--target", args->target,
                     "native gate set: clifford+t, cx+rz+sx, cz+rx+rz, iswap+rz+rx, xx+r, u+cx, nct (default: stay high level)");
     // One short option with an attached value: CLI11 reads -O0 .. -O3 as -O with 0 .. 3.

@@ -11,20 +11,22 @@
 
 namespace whittle::cli {
 
-int guarded(const frontend::SourceManager& sm, const std::function<int()>& body) {
+int guarded(const frontend::SourceManager& sm, const std::function<int()>& body) { return guarded(sm, body, std::cerr); }
+
+int guarded(const frontend::SourceManager& sm, const std::function<int()>& body, std::ostream& err) {
     try {
         return body();
     } catch (const UserError& e) {
-        std::cerr << frontend::format_error(e, sm);
+        err << frontend::format_error(e, sm);
         return kInputError;
     } catch (const InternalError& e) {
-        std::cerr << e.what() << "\n(this is a bug in whittle; please report it with the input)\n";
+        err << e.what() << "\n(this is a bug in whittle; please report it with the input)\n";
         return kInputError;
     } catch (const std::bad_alloc&) {
-        std::cerr << "error: out of memory\n";
+        err << "error: out of memory\n";
         return kInputError;
     } catch (const std::exception& e) {
-        std::cerr << "internal error: " << e.what() << "\n(this is a bug in whittle; please report it with the input)\n";
+        err << "internal error: " << e.what() << "\n(this is a bug in whittle; please report it with the input)\n";
         return kInputError;
     }
 }

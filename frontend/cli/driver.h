@@ -2,6 +2,7 @@
 #pragma once
 
 #include <functional>
+#include <iosfwd>
 #include <string>
 
 #include "frontend/diagnostics.h"
@@ -11,9 +12,10 @@ namespace whittle::cli {
 /// Exit codes (DESIGN.md): 0 success, 1 a check failed, 2 usage or input error.
 enum Exit : int { kOk = 0, kCheckFailed = 1, kInputError = 2 };
 
-/// Runs `body`, turning UserError into a located message on stderr and exit 2, and internal
-/// errors into an "internal error" message and exit 2. Returns the exit code.
+/// Runs `body`, turning UserError into a located message on `err` (stderr by default) and exit 2,
+/// and internal errors into an "internal error" message and exit 2. Returns the exit code.
 int guarded(const frontend::SourceManager& sm, const std::function<int()>& body);
+int guarded(const frontend::SourceManager& sm, const std::function<int()>& body, std::ostream& err);
 
 /// Writes `text` to `path` through a temporary file in the same folder and a rename, so a failure
 /// never leaves a partial file. "-" or "" writes to stdout.

@@ -26,7 +26,7 @@ std::string PassVerifier::operator()(const std::string& pass, const ir::Circuit&
         return "inconclusive";
     }
     const std::filesystem::path dir(folder_);
-    const std::string stem = (dir / fmt::format("whittle-verify-{}", pass)).string();
+    const std::string stem = (dir / fmt::format("whittle-verify-{}{}", tag_, pass)).string();
     write_output(stem + "-before.wq", ir::print_wq(before));
     write_output(stem + "-after.wq", ir::print_wq(after));
     write_output(stem + "-counterexample.txt",

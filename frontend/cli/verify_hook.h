@@ -18,16 +18,19 @@ public:
 
 /// Checks each pass's output against its input (PipelineHooks::verify). On a difference writes
 /// whittle-verify-<pass>-before.wq, -after.wq and -counterexample.txt into `folder` and throws
-/// VerifyFailure; an undecided check prints a warning and is recorded as "inconclusive".
+/// VerifyFailure; an undecided check prints a warning and is recorded as "inconclusive". `tag`
+/// goes after "whittle-verify-" so that parallel compiles into one folder write distinct files.
 class PassVerifier {
 public:
-    PassVerifier(std::string folder, passes::EquivOptions opts) : folder_(std::move(folder)), opts_(opts) {}
+    PassVerifier(std::string folder, passes::EquivOptions opts, std::string tag = "")
+        : folder_(std::move(folder)), opts_(opts), tag_(std::move(tag)) {}
     /// Returns the engine that decided, for PassRecord::checked_by.
     std::string operator()(const std::string& pass, const ir::Circuit& before, const ir::Circuit& after) const;
 
 private:
     std::string folder_;
     passes::EquivOptions opts_;
+    std::string tag_;
 };
 
 /// The folder failure files go to: the output's folder, or the current one for stdout.

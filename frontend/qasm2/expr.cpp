@@ -92,7 +92,7 @@ private:
         case Tok::Int:
         case Tok::Real:
             n.kind = K::Num;
-            n.num = Value::parse_literal(t.text);
+            n.num = Value::parse_literal(std::string(t.text));
             if (!n.num.is_finite()) throw UserError(fmt::format("number {} is too large", t.text), t.loc);
             return add(n);
         case Tok::LParen: {

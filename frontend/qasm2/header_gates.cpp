@@ -17,20 +17,23 @@ using ir::Op;
 using ir::OpKind;
 
 const std::vector<HeaderGate> kGates = {
-    {"U", 3, 1, true},     {"CX", 0, 2, true},
+    {GateId::U, "U", 3, 1, true}, {GateId::CX, "CX", 0, 2, true},
     // the header of arXiv:1707.03429
-    {"u3", 3, 1, false},   {"u2", 2, 1, false},   {"u1", 1, 1, false},   {"cx", 0, 2, false},
-    {"id", 0, 1, false},   {"x", 0, 1, false},    {"y", 0, 1, false},    {"z", 0, 1, false},
-    {"h", 0, 1, false},    {"s", 0, 1, false},    {"sdg", 0, 1, false},  {"t", 0, 1, false},
-    {"tdg", 0, 1, false},  {"rx", 1, 1, false},   {"ry", 1, 1, false},   {"rz", 1, 1, false},
-    {"cz", 0, 2, false},   {"cy", 0, 2, false},   {"swap", 0, 2, false}, {"ch", 0, 2, false},
-    {"ccx", 0, 3, false},  {"cswap", 0, 3, false}, {"crz", 1, 2, false}, {"cu1", 1, 2, false},
-    {"cu3", 3, 2, false},
+    {GateId::u3, "u3", 3, 1, false}, {GateId::u2, "u2", 2, 1, false}, {GateId::u1, "u1", 1, 1, false},
+    {GateId::cx, "cx", 0, 2, false}, {GateId::id, "id", 0, 1, false}, {GateId::x, "x", 0, 1, false},
+    {GateId::y, "y", 0, 1, false}, {GateId::z, "z", 0, 1, false}, {GateId::h, "h", 0, 1, false},
+    {GateId::s, "s", 0, 1, false}, {GateId::sdg, "sdg", 0, 1, false}, {GateId::t, "t", 0, 1, false},
+    {GateId::tdg, "tdg", 0, 1, false}, {GateId::rx, "rx", 1, 1, false}, {GateId::ry, "ry", 1, 1, false},
+    {GateId::rz, "rz", 1, 1, false}, {GateId::cz, "cz", 0, 2, false}, {GateId::cy, "cy", 0, 2, false},
+    {GateId::swap, "swap", 0, 2, false}, {GateId::ch, "ch", 0, 2, false}, {GateId::ccx, "ccx", 0, 3, false},
+    {GateId::cswap, "cswap", 0, 3, false}, {GateId::crz, "crz", 1, 2, false}, {GateId::cu1, "cu1", 1, 2, false},
+    {GateId::cu3, "cu3", 3, 2, false},
     // later additions to the header
-    {"u0", 1, 1, false},   {"u", 3, 1, false},    {"p", 1, 1, false},    {"sx", 0, 1, false},
-    {"sxdg", 0, 1, false}, {"cp", 1, 2, false},   {"crx", 1, 2, false},  {"cry", 1, 2, false},
-    {"csx", 0, 2, false},  {"cu", 4, 2, false},   {"rxx", 1, 2, false},  {"rzz", 1, 2, false},
-    {"c3x", 0, 4, false},  {"c4x", 0, 5, false},
+    {GateId::u0, "u0", 1, 1, false}, {GateId::u, "u", 3, 1, false}, {GateId::p, "p", 1, 1, false},
+    {GateId::sx, "sx", 0, 1, false}, {GateId::sxdg, "sxdg", 0, 1, false}, {GateId::cp, "cp", 1, 2, false},
+    {GateId::crx, "crx", 1, 2, false}, {GateId::cry, "cry", 1, 2, false}, {GateId::csx, "csx", 0, 2, false},
+    {GateId::cu, "cu", 4, 2, false}, {GateId::rxx, "rxx", 1, 2, false}, {GateId::rzz, "rzz", 1, 2, false},
+    {GateId::c3x, "c3x", 0, 4, false}, {GateId::c4x, "c4x", 0, 5, false},
 };
 
 constexpr double kTwoPi = 6.283185307179586476925286766559;
@@ -72,10 +75,23 @@ const HeaderGate* find_header_gate(std::string_view name) {
 }
 
 Angle append_header_gate(const HeaderGate& g, const std::vector<Value>& p, const uint32_t* w, std::vector<Op>& out) {
-    const std::string name = g.name;
     auto a = [&](size_t i) { return p[i].to_angle(); };
-    auto one = [&](OpKind k) { out.push_back(Op::one(k, w[0])); return Angle(); };
-    auto phase1 = [&](Angle t) { out.push_back(Op::phase(t, {Lit::pos(w[0])})); return Angle(); };
+    // The common one- and two-wire gates are built in place in `out` (no temporary op to copy).
+    auto fresh = [&](OpKind k) -> Op& {
+        Op& op = out.emplace_back();
+        op.kind = k;
+        return op;
+    };
+    auto one = [&](OpKind k) {
+        fresh(k).target = w[0];
+        return Angle();
+    };
+    auto phase1 = [&](Angle t) {
+        Op& op = fresh(OpKind::Phase);
+        op.angles[0] = t;
+        op.controls.push_back(Lit::pos(w[0]));
+        return Angle();
+    };
     auto ctl = [&](OpKind k) { out.push_back(Op::one(k, w[1], Angle(), {Lit::pos(w[0])})); return Angle(); };
     // u3(theta, phi, lambda): theta acts through cos/sin(theta/2), so it has period 4*pi as well.
     auto u3 = [&](const Value& theta, const Value& phi, const Value& lambda, LitVec controls) {
@@ -84,58 +100,55 @@ Angle append_header_gate(const HeaderGate& g, const std::vector<Value>& p, const
         return push_half_angle(out, std::move(op), theta);
     };
 
-    if (name == "U" || name == "u3" || name == "u") return u3(p[0], p[1], p[2], {});
-    if (name == "u2") return u3(Value::pi_times(1, 2), p[0], p[1], {});
-    if (name == "u1" || name == "p") return phase1(a(0));
-    if (name == "CX" || name == "cx") {
-        out.push_back(Op::x(w[1], {Lit::pos(w[0])}));
+    switch (g.id) {
+    case GateId::U: case GateId::u3: case GateId::u: return u3(p[0], p[1], p[2], {});
+    case GateId::u2: return u3(Value::pi_times(1, 2), p[0], p[1], {});
+    case GateId::u1: case GateId::p: return phase1(a(0));
+    case GateId::CX: case GateId::cx: {
+        Op& op = fresh(OpKind::X);
+        op.target = w[1];
+        op.controls.push_back(Lit::pos(w[0]));
         return Angle();
     }
-    if (name == "id" || name == "u0") return Angle();
-    if (name == "x") return one(OpKind::X);
-    if (name == "y") return one(OpKind::Y);
-    if (name == "h") return one(OpKind::H);
-    if (name == "sx") return one(OpKind::SX);
-    if (name == "sxdg") return one(OpKind::SXdg);
-    if (name == "z") return phase1(Angle::pi_times(1));
-    if (name == "s") return phase1(Angle::pi_times(1, 2));
-    if (name == "sdg") return phase1(Angle::pi_times(-1, 2));
-    if (name == "t") return phase1(Angle::pi_times(1, 4));
-    if (name == "tdg") return phase1(Angle::pi_times(-1, 4));
-    if (name == "rx" || name == "ry" || name == "rz") {
-        OpKind k = name == "rx" ? OpKind::RX : name == "ry" ? OpKind::RY : OpKind::RZ;
-        return push_half_angle(out, Op::one(k, w[0], a(0)), p[0]);
-    }
-    if (name == "crx" || name == "cry" || name == "crz") {
-        OpKind k = name == "crx" ? OpKind::RX : name == "cry" ? OpKind::RY : OpKind::RZ;
-        return push_half_angle(out, Op::one(k, w[1], a(0), {Lit::pos(w[0])}), p[0]);
-    }
-    if (name == "cz") {
+    case GateId::id: case GateId::u0: return Angle();
+    case GateId::x: return one(OpKind::X);
+    case GateId::y: return one(OpKind::Y);
+    case GateId::h: return one(OpKind::H);
+    case GateId::sx: return one(OpKind::SX);
+    case GateId::sxdg: return one(OpKind::SXdg);
+    case GateId::z: return phase1(Angle::pi_times(1));
+    case GateId::s: return phase1(Angle::pi_times(1, 2));
+    case GateId::sdg: return phase1(Angle::pi_times(-1, 2));
+    case GateId::t: return phase1(Angle::pi_times(1, 4));
+    case GateId::tdg: return phase1(Angle::pi_times(-1, 4));
+    case GateId::rx: return push_half_angle(out, Op::one(OpKind::RX, w[0], a(0)), p[0]);
+    case GateId::ry: return push_half_angle(out, Op::one(OpKind::RY, w[0], a(0)), p[0]);
+    case GateId::rz: return push_half_angle(out, Op::one(OpKind::RZ, w[0], a(0)), p[0]);
+    case GateId::crx: return push_half_angle(out, Op::one(OpKind::RX, w[1], a(0), {Lit::pos(w[0])}), p[0]);
+    case GateId::cry: return push_half_angle(out, Op::one(OpKind::RY, w[1], a(0), {Lit::pos(w[0])}), p[0]);
+    case GateId::crz: return push_half_angle(out, Op::one(OpKind::RZ, w[1], a(0), {Lit::pos(w[0])}), p[0]);
+    case GateId::cz:
         out.push_back(Op::phase(Angle::pi_times(1), {Lit::pos(w[0]), Lit::pos(w[1])}));
         return Angle();
-    }
-    if (name == "cu1" || name == "cp") {
+    case GateId::cu1: case GateId::cp:
         out.push_back(Op::phase(a(0), {Lit::pos(w[0]), Lit::pos(w[1])}));
         return Angle();
-    }
-    if (name == "cy") return ctl(OpKind::Y);
-    if (name == "ch") return ctl(OpKind::H);
-    if (name == "csx") return ctl(OpKind::SX);
-    if (name == "swap") {
+    case GateId::cy: return ctl(OpKind::Y);
+    case GateId::ch: return ctl(OpKind::H);
+    case GateId::csx: return ctl(OpKind::SX);
+    case GateId::swap:
         out.push_back(Op::swap(w[0], w[1]));
         return Angle();
-    }
-    if (name == "cswap") {
+    case GateId::cswap:
         out.push_back(Op::swap(w[1], w[2], {Lit::pos(w[0])}));
         return Angle();
-    }
-    if (name == "ccx" || name == "c3x" || name == "c4x") {
-        LitVec controls;
-        for (uint32_t i = 0; i + 1 < g.num_qubits; ++i) controls.push_back(Lit::pos(w[i]));
-        out.push_back(Op::x(w[g.num_qubits - 1], controls));
+    case GateId::ccx: case GateId::c3x: case GateId::c4x: {
+        Op& op = fresh(OpKind::X);
+        op.target = w[g.num_qubits - 1];
+        for (uint32_t i = 0; i + 1 < g.num_qubits; ++i) op.controls.push_back(Lit::pos(w[i]));
         return Angle();
     }
-    if (name == "cu3") {
+    case GateId::cu3: {
         // The header body: u1((lambda-phi)/2) t; cx c,t; u3(-theta/2,0,-(phi+lambda)/2) t; cx c,t;
         // u3(theta/2,phi,0) t. With control 0 it is the identity, with control 1 it is
         // Rz(phi) Ry(theta) Rz(lambda) = e^{-i(phi+lambda)/2} u3(theta,phi,lambda).
@@ -143,14 +156,14 @@ Angle append_header_gate(const HeaderGate& g, const std::vector<Value>& p, const
         out.push_back(Op::phase((-half(p[1] + p[2])).to_angle(), {Lit::pos(w[0])}));
         return gp;
     }
-    if (name == "cu") {
+    case GateId::cu: {
         // cu(theta,phi,lambda,gamma) = controlled e^{i gamma} u3(theta,phi,lambda).
         Angle gp = u3(p[0], p[1], p[2], {Lit::pos(w[0])});
         if (!p[3].is_zero()) out.push_back(Op::phase(a(3), {Lit::pos(w[0])}));
         return gp;
     }
-    if (name == "rxx") return push_half_angle(out, Op::two(OpKind::XX, w[0], w[1], a(0)), p[0]);
-    if (name == "rzz") {
+    case GateId::rxx: return push_half_angle(out, Op::two(OpKind::XX, w[0], w[1], a(0)), p[0]);
+    case GateId::rzz:
         // exp(-i theta/2 Z(x)Z) = e^{-i theta/2} e^{i theta (a xor b)}
         out.push_back(Op::parity(a(0), {w[0], w[1]}));
         return (-half(p[0])).to_angle();

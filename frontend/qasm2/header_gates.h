@@ -10,7 +10,14 @@
 
 namespace whittle::frontend::qasm2 {
 
+/// Which gate of the table (append_header_gate switches on it; no string compares per call).
+enum class GateId : uint8_t {
+    U, CX, u3, u2, u1, cx, id, x, y, z, h, s, sdg, t, tdg, rx, ry, rz, cz, cy, swap, ch, ccx, cswap, crz, cu1, cu3,
+    u0, u, p, sx, sxdg, cp, crx, cry, csx, cu, rxx, rzz, c3x, c4x,
+};
+
 struct HeaderGate {
+    GateId id;
     const char* name;
     uint8_t num_params;
     uint8_t num_qubits;

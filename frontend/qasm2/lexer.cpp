@@ -51,12 +51,6 @@ Lexer::Lexer(std::string_view text, uint32_t file_id) : text_(text), file_(file_
     next_ = scan();
 }
 
-Token Lexer::take() {
-    Token t = std::move(next_);
-    next_ = scan();
-    return t;
-}
-
 void Lexer::advance() {
     if (text_[pos_] == '\n') {
         ++line_;
@@ -67,11 +61,22 @@ void Lexer::advance() {
     ++pos_;
 }
 
+void Lexer::skip_digits() {
+    size_t start = pos_;
+    while (pos_ < text_.size() && is_digit(text_[pos_])) ++pos_;
+    col_ += uint32_t(pos_ - start);
+}
+
 void Lexer::skip_space_and_comments() {
     while (pos_ < text_.size()) {
         char c = text_[pos_];
-        if (c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == '\f' || c == '\v') {
-            advance();
+        if (c == ' ' || c == '\t' || c == '\r' || c == '\f' || c == '\v') {
+            ++pos_;
+            ++col_;
+        } else if (c == '\n') {
+            ++pos_;
+            ++line_;
+            col_ = 1;
         } else if (c == '/' && pos_ + 1 < text_.size() && text_[pos_ + 1] == '/') {
             while (pos_ < text_.size() && text_[pos_] != '\n') advance();
         } else if (c == '/' && pos_ + 1 < text_.size() && text_[pos_ + 1] == '*') {
@@ -90,7 +95,22 @@ void Lexer::skip_space_and_comments() {
 }
 
 Token Lexer::scan() {
-    skip_space_and_comments();
+    // Blanks and line ends between tokens take the short loop; comments and rarer spaces the long one.
+    for (;;) {
+        if (pos_ >= text_.size()) break;
+        const char b = text_[pos_];
+        if (b == ' ') {
+            ++pos_;
+            ++col_;
+        } else if (b == '\n') {
+            ++pos_;
+            ++line_;
+            col_ = 1;
+        } else {
+            if (b == '/' || b == '\t' || b == '\r' || b == '\f' || b == '\v') skip_space_and_comments();
+            break;
+        }
+    }
     Token t;
     t.loc = here();
     if (pos_ >= text_.size()) return t;
@@ -102,19 +122,20 @@ Token Lexer::scan() {
     };
     if (is_ident_start(c)) {
         size_t start = pos_;
-        while (pos_ < text_.size() && is_ident_char(text_[pos_])) advance();
+        while (pos_ < text_.size() && is_ident_char(text_[pos_])) ++pos_;  // no line end inside: only the column moves
+        col_ += uint32_t(pos_ - start);
         t.kind = Tok::Ident;
-        t.text = std::string(text_.substr(start, pos_ - start));
+        t.text = text_.substr(start, pos_ - start);
         return t;
     }
     if (is_digit(c) || (c == '.' && pos_ + 1 < text_.size() && is_digit(text_[pos_ + 1]))) {
         size_t start = pos_;
         bool real = false;
-        while (pos_ < text_.size() && is_digit(text_[pos_])) advance();
+        skip_digits();
         if (pos_ < text_.size() && text_[pos_] == '.') {
             real = true;
             advance();
-            while (pos_ < text_.size() && is_digit(text_[pos_])) advance();
+            skip_digits();
         }
         if (pos_ < text_.size() && (text_[pos_] == 'e' || text_[pos_] == 'E')) {
             size_t save_pos = pos_;
@@ -123,14 +144,14 @@ Token Lexer::scan() {
             if (pos_ < text_.size() && (text_[pos_] == '+' || text_[pos_] == '-')) advance();
             if (pos_ < text_.size() && is_digit(text_[pos_])) {
                 real = true;
-                while (pos_ < text_.size() && is_digit(text_[pos_])) advance();
+                skip_digits();
             } else {
                 pos_ = save_pos;  // not an exponent: leave the 'e' for the next token
                 col_ = save_col;
             }
         }
         t.kind = real ? Tok::Real : Tok::Int;
-        t.text = std::string(text_.substr(start, pos_ - start));
+        t.text = text_.substr(start, pos_ - start);
         return t;
     }
     switch (c) {
@@ -169,7 +190,7 @@ Token Lexer::scan() {
         while (pos_ < text_.size() && text_[pos_] != '"' && text_[pos_] != '\n') advance();
         if (pos_ >= text_.size() || text_[pos_] != '"') throw UserError("string is not closed: expected '\"'", t.loc);
         t.kind = Tok::String;
-        t.text = std::string(text_.substr(start, pos_ - start));
+        t.text = text_.substr(start, pos_ - start);
         advance();
         return t;
     }

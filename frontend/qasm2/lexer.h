@@ -17,26 +17,31 @@ enum class Tok : uint8_t {
 
 struct Token {
     Tok kind = Tok::End;
-    std::string text;  ///< identifier, number or string contents (without quotes)
+    std::string_view text;  ///< identifier, number or string contents (without quotes), a view of the source
     ir::SourceLoc loc;
 };
 
 /// How a token kind reads in "expected ..." messages, e.g. "';'" or "a number".
 const char* token_name(Tok t);
 
-/// A streaming lexer with one token of lookahead. Skips whitespace, `//` and `/* */` comments and a
+/// A streaming lexer with one token of lookahead; tokens view the text, which must outlive them. Skips whitespace, `//` and `/* */` comments and a
 /// leading UTF-8 byte order mark; throws a located UserError on a character that starts no token.
 class Lexer {
 public:
     Lexer(std::string_view text, uint32_t file_id);
     const Token& peek() const { return next_; }
-    Token take();
+    Token take() {
+        Token t = next_;
+        next_ = scan();
+        return t;
+    }
 
 private:
     Token scan();
     void skip_space_and_comments();
     ir::SourceLoc here() const { return ir::SourceLoc{file_, line_, col_}; }
     void advance();
+    void skip_digits();
 
     std::string_view text_;
     size_t pos_ = 0;

@@ -1,10 +1,13 @@
 // Scale benchmark (issue 8): parse throughput, per-pass time and ops/s, whole -O2 clifford+t compile,
-// peak memory per op, and scaling t(10N)/t(N). Each measurement runs in a forked child so its peak
-// RSS is its own. Prints markdown tables; `whittle_bench_compile --help` lists the options.
+// peak memory per op, and scaling t(10N)/t(N). Each measurement runs in a forked child (under an
+// address-space and a time limit) so its peak RSS and CPU time are its own. Prints markdown tables;
+// `whittle_bench_compile --help` lists the options.
 #include <sys/resource.h>
 #include <sys/wait.h>
+#include <time.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <chrono>
 #include <cstdio>
 #include <cstring>
@@ -24,29 +27,64 @@ using Clock = std::chrono::steady_clock;
 
 namespace {
 
+struct PassTime {
+    std::string name;
+    double seconds = 0, cpu_seconds = 0;
+    uint64_t ops_before = 0;
+};
+
 struct Measure {
-    double parse_s = 0, count_s = 0, compile_s = 0;
+    double parse_s = 0, parse_cpu = 0, count_s = 0, compile_s = 0, compile_cpu = 0;
     double bytes = 0;
-    uint64_t ops = 0;
+    uint64_t ops = 0, ops_out = 0;
     long peak_kib = 0;
-    std::vector<std::pair<std::string, double>> pass_s;
+    std::vector<PassTime> passes;
+};
+
+/// One family of inputs: its name, the language it is written in, and the sizes to run.
+struct Case {
+    std::string kind;
+    std::vector<uint64_t> sizes;
 };
 
 double since(Clock::time_point t0) { return std::chrono::duration<double>(Clock::now() - t0).count(); }
 
+/// CPU seconds (user + system) of this process so far.
+double cpu_now() {
+    timespec ts{};
+    clock_gettime(CLOCK_PROCESS_CPUTIME_ID, &ts);
+    return double(ts.tv_sec) + double(ts.tv_nsec) * 1e-9;
+}
+
+uint32_t random_width(uint64_t n) { return uint32_t(std::max<uint64_t>(64, n / 1000)); }
+
 std::string make_input(const std::string& kind, uint64_t n) {
-    if (kind == "clifford-t") return bench::random_clifford_t_qasm(uint32_t(std::max<uint64_t>(64, n / 1000)), n, 7);
-    if (kind == "high-level") return bench::random_high_level_wq(uint32_t(std::max<uint64_t>(64, n / 1000)), n, 7);
+    if (kind == "clifford-t") return bench::random_clifford_t_qasm(random_width(n), n, 7);
+    if (kind == "clifford-t-wq") return bench::random_clifford_t_wq(random_width(n), n, 7);
+    if (kind == "high-level") return bench::random_high_level_wq(random_width(n), n, 7);
     if (kind == "adder") return bench::cuccaro_adder_qasm(uint32_t(n));
+    if (kind == "adder-wq") return bench::cuccaro_adder_wq(uint32_t(n));
     return bench::schoolbook_multiplier_wq(uint32_t(n));
+}
+
+/// Input ops for a size (to skip sizes over --max-ops before generating them).
+uint64_t estimated_ops(const std::string& kind, uint64_t n) {
+    if (kind == "adder" || kind == "adder-wq") return 6 * n + 1;
+    if (kind == "multiplier") return n * (6 * n + 1);
+    return n;
 }
 
 frontend::InputFormat format_of(const std::string& kind) {
     return (kind == "clifford-t" || kind == "adder") ? frontend::InputFormat::Qasm2 : frontend::InputFormat::Wq;
 }
 
-// Runs in the child: generate, parse (timed), count, compile (timed per pass). Writes results to fd.
-void measure_child(const std::string& kind, uint64_t n, int fd) {
+const char* format_name(const std::string& kind) {
+    return format_of(kind) == frontend::InputFormat::Qasm2 ? "qasm2" : "wq";
+}
+
+// Runs in the child: generate, parse (timed), count, compile (timed per pass; skipped when
+// `compile` is false). Writes results to fd.
+void measure_child(const std::string& kind, uint64_t n, bool compile, int fd) {
     std::string text = make_input(kind, n);
     Measure m;
     m.bytes = double(text.size());
@@ -55,39 +93,58 @@ void measure_child(const std::string& kind, uint64_t n, int fd) {
     lo.limits.max_ops = 200'000'000;
     lo.limits.max_loop_trips = 100'000'000;
     auto t0 = Clock::now();
-    ir::Circuit c = frontend::load_text(text, "bench", format_of(kind), sm, lo);
+    double c0 = cpu_now();
+    // The text moves into the SourceManager, as `whittle compile` keeps the file's text for diagnostics.
+    ir::Circuit c = frontend::load_text(std::move(text), "bench", format_of(kind), sm, lo);
     m.parse_s = since(t0);
+    m.parse_cpu = cpu_now() - c0;
     m.ops = c.ops.size();
     t0 = Clock::now();
     ir::Resources r = ir::count_resources(c);
     m.count_s = m.parse_s + since(t0);
     (void)r;
-    text.clear();
-    text.shrink_to_fit();
     passes::PassOptions po;
     po.target = "clifford+t";
     po.level = 2;
     t0 = Clock::now();
-    auto records = passes::run_passes(c, passes::pipeline_for(po), po);
+    c0 = cpu_now();
+    std::vector<passes::PassRecord> records;
+    if (compile) records = passes::run_passes(c, passes::pipeline_for(po), po);
     m.compile_s = since(t0);
+    m.compile_cpu = cpu_now() - c0;
+    m.ops_out = c.ops.size();
     struct rusage ru;
     getrusage(RUSAGE_SELF, &ru);
     m.peak_kib = ru.ru_maxrss;
-    std::string out = fmt::format("{} {} {} {} {} {} {}\n", m.parse_s, m.count_s, m.compile_s, m.bytes, m.ops,
-                                  m.peak_kib, records.size());
-    for (auto& rec : records) out += fmt::format("{} {} {}\n", rec.name, rec.seconds, rec.ops_before);
+    std::string out = fmt::format("{} {} {} {} {} {} {} {} {} {}\n", m.parse_s, m.parse_cpu, m.count_s, m.compile_s,
+                                  m.compile_cpu, m.bytes, m.ops, m.ops_out, m.peak_kib, records.size());
+    for (auto& rec : records) out += fmt::format("{} {} {} {}\n", rec.name, rec.seconds, rec.cpu_seconds, rec.ops_before);
     ssize_t w = write(fd, out.data(), out.size());
     (void)w;
 }
 
-bool measure(const std::string& kind, uint64_t n, Measure& m) {
+struct Limits {
+    double mem_gib = 8;
+    unsigned timeout_s = 900;
+    uint64_t compile_max_ops = UINT64_MAX;  ///< larger inputs are parsed and counted only
+};
+
+/// Runs one measurement in a child. Returns "" on success, else why it failed.
+std::string measure(const std::string& kind, uint64_t n, const Limits& limits, Measure& m) {
     int fds[2];
-    if (pipe(fds) != 0) return false;
+    if (pipe(fds) != 0) return "pipe failed";
     pid_t pid = fork();
     if (pid == 0) {
         close(fds[0]);
+        // The machine is shared: a size that would need more memory than the limit fails alone.
+        rlimit as{};
+        as.rlim_cur = as.rlim_max = rlim_t(limits.mem_gib * double(1ull << 30));
+        setrlimit(RLIMIT_AS, &as);
+        alarm(limits.timeout_s);
         try {
-            measure_child(kind, n, fds[1]);
+            measure_child(kind, n, estimated_ops(kind, n) <= limits.compile_max_ops, fds[1]);
+        } catch (const std::bad_alloc&) {
+            _exit(3);
         } catch (const std::exception& e) {
             std::fprintf(stderr, "%s %llu: %s\n", kind.c_str(), (unsigned long long)n, e.what());
             _exit(1);
@@ -102,83 +159,142 @@ bool measure(const std::string& kind, uint64_t n, Measure& m) {
     close(fds[0]);
     int status = 0;
     waitpid(pid, &status, 0);
-    if (!WIFEXITED(status) || WEXITSTATUS(status) != 0) return false;
-    size_t npasses = 0;
+    if (WIFSIGNALED(status) && WTERMSIG(status) == SIGALRM) return fmt::format("over {} s", limits.timeout_s);
+    if (WIFEXITED(status) && WEXITSTATUS(status) == 3) return fmt::format("over {} GiB", limits.mem_gib);
+    if (!WIFEXITED(status) || WEXITSTATUS(status) != 0) return "failed";
     char* p = buf.data();
     m.parse_s = std::strtod(p, &p);
+    m.parse_cpu = std::strtod(p, &p);
     m.count_s = std::strtod(p, &p);
     m.compile_s = std::strtod(p, &p);
+    m.compile_cpu = std::strtod(p, &p);
     m.bytes = std::strtod(p, &p);
     m.ops = std::strtoull(p, &p, 10);
+    m.ops_out = std::strtoull(p, &p, 10);
     m.peak_kib = std::strtol(p, &p, 10);
-    npasses = std::strtoull(p, &p, 10);
+    size_t npasses = std::strtoull(p, &p, 10);
     for (size_t i = 0; i < npasses; ++i) {
         while (*p == '\n' || *p == ' ') ++p;
         char* start = p;
         while (*p && *p != ' ') ++p;
-        std::string name(start, p);
-        double s = std::strtod(p, &p);
-        std::strtoull(p, &p, 10);
-        m.pass_s.emplace_back(name, s);
+        PassTime t;
+        t.name.assign(start, p);
+        t.seconds = std::strtod(p, &p);
+        t.cpu_seconds = std::strtod(p, &p);
+        t.ops_before = std::strtoull(p, &p, 10);
+        m.passes.push_back(t);
     }
-    return true;
+    return "";
+}
+
+/// "12.3 (x10)": t(big)/t(small) and the ratio of their input sizes.
+std::string scaling(double small_t, double big_t, uint64_t small_ops, uint64_t big_ops) {
+    if (small_t <= 0) return "-";
+    return fmt::format("{:.1f} (x{:.0f})", big_t / small_t, double(big_ops) / double(std::max<uint64_t>(small_ops, 1)));
+}
+
+void usage() {
+    std::printf(
+        "usage: whittle_bench_compile [--quick] [--only KIND] [--max-ops N] [--compile-max-ops N]\n"
+        "                             [--mem-limit-gib G] [--timeout S]\n"
+        "  KIND: clifford-t, clifford-t-wq, high-level, adder, adder-wq, multiplier\n"
+        "  --max-ops N        skip sizes with more than N input ops\n"
+        "  --mem-limit-gib G  address-space limit of each measurement (default 8)\n"
+        "  --timeout S        time limit of each measurement in seconds (default 900)\n"
+        "  --compile-max-ops N  sizes with more input ops are parsed and counted, not compiled\n");
 }
 
 }  // namespace
 
 int main(int argc, char** argv) {
-    std::vector<std::string> kinds = {"clifford-t", "high-level", "adder", "multiplier"};
-    std::map<std::string, std::vector<uint64_t>> sizes = {{"clifford-t", {100000, 1000000, 10000000}},
-                                                          {"high-level", {100000, 1000000}},
-                                                          {"adder", {256, 4096}},
-                                                          {"multiplier", {32, 128}}};
+    std::vector<Case> cases = {{"clifford-t", {100000, 1000000, 10000000}},
+                               {"clifford-t-wq", {100000, 1000000}},
+                               {"high-level", {100000, 1000000, 10000000}},
+                               {"adder", {256, 4096}},
+                               {"adder-wq", {256, 4096}},
+                               {"multiplier", {32, 128, 512}}};
+    std::string only;
+    uint64_t max_ops = UINT64_MAX;
+    Limits limits;
     for (int i = 1; i < argc; ++i) {
         std::string a = argv[i];
+        bool has_value = i + 1 < argc;
         if (a == "--quick") {
-            sizes = {{"clifford-t", {10000, 100000}}, {"high-level", {10000, 100000}}, {"adder", {64, 640}},
-                     {"multiplier", {8, 24}}};
-        } else if (a == "--only" && i + 1 < argc) {
-            kinds = {argv[++i]};
+            cases = {{"clifford-t", {10000, 100000}}, {"clifford-t-wq", {10000, 100000}}, {"high-level", {10000, 100000}},
+                     {"adder", {64, 640}},           {"adder-wq", {64, 640}},            {"multiplier", {8, 24}}};
+        } else if (a == "--only" && has_value) {
+            only = argv[++i];
+        } else if (a == "--max-ops" && has_value) {
+            max_ops = std::strtoull(argv[++i], nullptr, 10);
+        } else if (a == "--mem-limit-gib" && has_value) {
+            limits.mem_gib = std::strtod(argv[++i], nullptr);
+        } else if (a == "--compile-max-ops" && has_value) {
+            limits.compile_max_ops = std::strtoull(argv[++i], nullptr, 10);
+        } else if (a == "--timeout" && has_value) {
+            limits.timeout_s = unsigned(std::strtoul(argv[++i], nullptr, 10));
         } else {
-            std::printf("usage: whittle_bench_compile [--quick] [--only clifford-t|high-level|adder|multiplier]\n");
+            usage();
             return a == "--help" ? 0 : 2;
         }
     }
-    std::printf("| input | size | ops | parse MB/s | count s | compile -O2 clifford+t s | compile/count | peak bytes/op |\n");
-    std::printf("|---|---|---|---|---|---|---|---|\n");
-    std::map<std::string, std::vector<Measure>> all;
-    for (const std::string& kind : kinds) {
-        for (uint64_t n : sizes[kind]) {
+    std::printf("Wall and CPU seconds (CPU = user + system of the measuring process); peak RSS of the whole run "
+                "(generation, parse, compile) per input op.\n\n");
+    std::printf("| input | format | size | ops in | ops out | parse MB/s (wall) | parse MB/s (CPU) | count s | "
+                "compile s (wall) | compile s (CPU) | compile/count (CPU) | peak bytes/op |\n");
+    std::printf("|---|---|---|---|---|---|---|---|---|---|---|---|\n");
+    std::vector<std::pair<std::string, std::vector<Measure>>> all;
+    for (const Case& cs : cases) {
+        if (!only.empty() && cs.kind != only) continue;
+        std::vector<Measure> done;
+        for (uint64_t n : cs.sizes) {
+            if (estimated_ops(cs.kind, n) > max_ops) continue;
             Measure m;
-            if (!measure(kind, n, m)) {
-                std::printf("| %s | %llu | failed | | | | | |\n", kind.c_str(), (unsigned long long)n);
+            std::string why = measure(cs.kind, n, limits, m);
+            if (!why.empty()) {
+                std::printf("| %s | %s | %llu | %s | | | | | | | | |\n", cs.kind.c_str(), format_name(cs.kind),
+                            (unsigned long long)n, why.c_str());
+                std::fflush(stdout);
                 continue;
             }
-            std::printf("| %s | %llu | %llu | %.1f | %.3f | %.3f | %.1f | %.0f |\n", kind.c_str(),
-                        (unsigned long long)n, (unsigned long long)m.ops, m.bytes / 1e6 / std::max(m.parse_s, 1e-9),
-                        m.count_s, m.compile_s, m.compile_s / std::max(m.count_s, 1e-9),
+            // `whittle count` is parse plus count; the goal compares the compile's CPU time with it.
+            const double count_cpu = m.parse_cpu + (m.count_s - m.parse_s);
+            if (m.passes.empty()) {
+                std::printf("| %s | %s | %llu | %llu | (parse only) | %.1f | %.1f | %.3f | - | - | - | %.0f |\n",
+                            cs.kind.c_str(), format_name(cs.kind), (unsigned long long)n, (unsigned long long)m.ops,
+                            m.bytes / 1e6 / std::max(m.parse_s, 1e-9), m.bytes / 1e6 / std::max(m.parse_cpu, 1e-9),
+                            m.count_s, double(m.peak_kib) * 1024.0 / double(std::max<uint64_t>(m.ops, 1)));
+                std::fflush(stdout);
+                continue;
+            }
+            std::printf("| %s | %s | %llu | %llu | %llu | %.1f | %.1f | %.3f | %.2f | %.2f | %.1f | %.0f |\n",
+                        cs.kind.c_str(), format_name(cs.kind), (unsigned long long)n, (unsigned long long)m.ops,
+                        (unsigned long long)m.ops_out, m.bytes / 1e6 / std::max(m.parse_s, 1e-9),
+                        m.bytes / 1e6 / std::max(m.parse_cpu, 1e-9), m.count_s, m.compile_s, m.compile_cpu,
+                        (m.parse_cpu + m.compile_cpu) / std::max(count_cpu, 1e-9),
                         double(m.peak_kib) * 1024.0 / double(std::max<uint64_t>(m.ops, 1)));
             std::fflush(stdout);
-            all[kind].push_back(m);
+            done.push_back(std::move(m));
         }
+        all.emplace_back(cs.kind, std::move(done));
     }
-    std::printf("\nPer pass (seconds; ops/s at the largest size; scaling = t(10N)/t(N) between the two last sizes that differ by 10x)\n\n");
-    std::printf("| input | pass | seconds | ops/s | scaling |\n|---|---|---|---|---|\n");
+    std::printf("\nPer pass at the largest size that ran: CPU seconds, ops entering the pass per CPU second, and "
+                "scaling = CPU t(big)/t(small) between the two largest sizes (their ratio in brackets)\n\n");
+    std::printf("| input | pass | CPU s | ops/s | scaling |\n|---|---|---|---|---|\n");
     for (auto& [kind, ms] : all) {
         if (ms.empty()) continue;
         const Measure& big = ms.back();
         const Measure* small = ms.size() >= 2 ? &ms[ms.size() - 2] : nullptr;
-        for (size_t i = 0; i < big.pass_s.size(); ++i) {
-            double s = big.pass_s[i].second;
-            std::string scaling = "-";
-            if (small && i < small->pass_s.size() && small->pass_s[i].second > 0)
-                scaling = fmt::format("{:.1f}", s / small->pass_s[i].second);
-            std::printf("| %s | %s | %.3f | %.3g | %s |\n", kind.c_str(), big.pass_s[i].first.c_str(), s,
-                        double(big.ops) / std::max(s, 1e-9), scaling.c_str());
+        for (size_t i = 0; i < big.passes.size(); ++i) {
+            const PassTime& pt = big.passes[i];
+            std::string sc = "-";
+            if (small && i < small->passes.size())
+                sc = scaling(small->passes[i].cpu_seconds, pt.cpu_seconds, small->ops, big.ops);
+            std::printf("| %s | %s | %.3f | %.3g | %s |\n", kind.c_str(), pt.name.c_str(), pt.cpu_seconds,
+                        double(pt.ops_before) / std::max(pt.cpu_seconds, 1e-9), sc.c_str());
         }
-        if (small && small->compile_s > 0)
-            std::printf("| %s | (whole compile) | %.3f | %.3g | %.1f |\n", kind.c_str(), big.compile_s,
-                        double(big.ops) / std::max(big.compile_s, 1e-9), big.compile_s / small->compile_s);
+        std::string sc = small ? scaling(small->compile_cpu, big.compile_cpu, small->ops, big.ops) : "-";
+        std::printf("| %s | (whole compile) | %.3f | %.3g | %s |\n", kind.c_str(), big.compile_cpu,
+                    double(big.ops) / std::max(big.compile_cpu, 1e-9), sc.c_str());
     }
     return 0;
 }

@@ -7,30 +7,57 @@
 
 namespace whittle::bench {
 
-std::string random_clifford_t_qasm(uint32_t qubits, uint64_t gates, uint64_t seed) {
+namespace {
+
+/// Spelling of the Clifford+T+Toffoli generator's gates in one input language.
+struct GateSpelling {
+    const char* header;               // before the gates; {} = the number of qubits
+    const char* one[6];               // h s sdg t tdg x, each followed by the qubit
+    const char* cx;                   // {0} control, {1} target
+    const char* ccx;                  // {0} {1} controls, {2} target
+};
+
+const GateSpelling kQasm = {"OPENQASM 2.0;\ninclude \"qelib1.inc\";\nqreg q[{}];\n",
+                            {"h", "s", "sdg", "t", "tdg", "x"},
+                            "cx q[{}],q[{}];\n",
+                            "ccx q[{}],q[{}],q[{}];\n"};
+const GateSpelling kWq = {"qubit q[{}]\n", {"h", "s", "~s", "t", "~t", "x"}, "q[{1}] ^= q[{0}]\n",
+                          "q[{2}] ^= q[{0}] & q[{1}]\n"};
+
+std::string random_clifford_t(const GateSpelling& sp, uint32_t qubits, uint64_t gates, uint64_t seed) {
     std::mt19937_64 rng(seed);
     std::string s;
     s.reserve(gates * 22 + 64);
-    s += fmt::format("OPENQASM 2.0;\ninclude \"qelib1.inc\";\nqreg q[{}];\n", qubits);
+    s += fmt::format(fmt::runtime(sp.header), qubits);
+    const bool qasm = &sp == &kQasm;
     std::uniform_int_distribution<uint32_t> wire(0, qubits - 1), kind(0, 9);
-    static const char* one[] = {"h", "s", "sdg", "t", "tdg", "x"};
     for (uint64_t g = 0; g < gates; ++g) {
         uint32_t k = kind(rng), a = wire(rng);
         if (k < 6) {
-            fmt::format_to(std::back_inserter(s), "{} q[{}];\n", one[k], a);
+            fmt::format_to(std::back_inserter(s), fmt::runtime(qasm ? "{} q[{}];\n" : "{} q[{}]\n"), sp.one[k], a);
             continue;
         }
         uint32_t b = wire(rng);
         while (b == a) b = wire(rng);
         if (k < 9) {
-            fmt::format_to(std::back_inserter(s), "cx q[{}],q[{}];\n", a, b);
+            fmt::format_to(std::back_inserter(s), fmt::runtime(sp.cx), a, b);
             continue;
         }
         uint32_t c = wire(rng);
         while (c == a || c == b) c = wire(rng);
-        fmt::format_to(std::back_inserter(s), "ccx q[{}],q[{}],q[{}];\n", a, b, c);
+        fmt::format_to(std::back_inserter(s), fmt::runtime(sp.ccx), a, b, c);
     }
     return s;
+}
+
+}  // namespace
+
+std::string random_clifford_t_qasm(uint32_t qubits, uint64_t gates, uint64_t seed) {
+    return random_clifford_t(kQasm, qubits, gates, seed);
+}
+
+std::string random_clifford_t_wq(uint32_t qubits, uint64_t gates, uint64_t seed) {
+    return random_clifford_t(kWq, qubits, gates, seed);
 }
 
 std::string random_high_level_wq(uint32_t qubits, uint64_t ops, uint64_t seed) {
@@ -70,27 +97,47 @@ std::string random_high_level_wq(uint32_t qubits, uint64_t ops, uint64_t seed) {
     return s;
 }
 
-std::string cuccaro_adder_qasm(uint32_t n) {
+namespace {
+
+/// The Cuccaro adder's gates in either language (`qasm` picks OpenQASM 2.0, else .wq).
+std::string cuccaro_adder(uint32_t n, bool qasm) {
     // Wires: c (carry in, clean), a[n], b[n], z (carry out). MAJ(x,y,z): cx z,y; cx z,x; ccx x,y,z.
     // UMA(x,y,z): ccx x,y,z; cx z,x; cx x,y.
     std::string s;
     s.reserve(size_t(n) * 120 + 128);
-    s += fmt::format("OPENQASM 2.0;\ninclude \"qelib1.inc\";\nqreg c[1];\nqreg a[{0}];\nqreg b[{0}];\nqreg z[1];\n", n);
+    if (qasm) s += fmt::format("OPENQASM 2.0;\ninclude \"qelib1.inc\";\nqreg c[1];\nqreg a[{0}];\nqreg b[{0}];\nqreg z[1];\n", n);
+    else s += fmt::format("qubit c[1], a[{0}], b[{0}], z[1]\n", n);
+    const char* cx = qasm ? "cx {0},{1};\n" : "{1} ^= {0}\n";
+    const char* ccx = qasm ? "ccx {0},{1},{2};\n" : "{2} ^= {0} & {1}\n";
+    auto gate2 = [&](const std::string& x, const std::string& y) { fmt::format_to(std::back_inserter(s), fmt::runtime(cx), x, y); };
+    auto gate3 = [&](const std::string& x, const std::string& y, const std::string& z) {
+        fmt::format_to(std::back_inserter(s), fmt::runtime(ccx), x, y, z);
+    };
     auto maj = [&](const std::string& x, const std::string& y, const std::string& z) {
-        fmt::format_to(std::back_inserter(s), "cx {2},{1};\ncx {2},{0};\nccx {0},{1},{2};\n", x, y, z);
+        gate2(z, y);
+        gate2(z, x);
+        gate3(x, y, z);
     };
     auto uma = [&](const std::string& x, const std::string& y, const std::string& z) {
-        fmt::format_to(std::back_inserter(s), "ccx {0},{1},{2};\ncx {2},{0};\ncx {0},{1};\n", x, y, z);
+        gate3(x, y, z);
+        gate2(z, x);
+        gate2(x, y);
     };
     auto A = [](uint32_t i) { return fmt::format("a[{}]", i); };
     auto B = [](uint32_t i) { return fmt::format("b[{}]", i); };
     maj("c[0]", B(0), A(0));
     for (uint32_t i = 1; i < n; ++i) maj(A(i - 1), B(i), A(i));
-    fmt::format_to(std::back_inserter(s), "cx {},z[0];\n", A(n - 1));
+    gate2(A(n - 1), "z[0]");
     for (uint32_t i = n - 1; i >= 1; --i) uma(A(i - 1), B(i), A(i));
     uma("c[0]", B(0), A(0));
     return s;
 }
+
+}  // namespace
+
+std::string cuccaro_adder_qasm(uint32_t n) { return cuccaro_adder(n, true); }
+
+std::string cuccaro_adder_wq(uint32_t n) { return cuccaro_adder(n, false); }
 
 std::string schoolbook_multiplier_wq(uint32_t n) {
     // p[0..2n) = a*b for p starting at 0: for each bit b[j], add a (shifted by j) into p under control b[j], with a
