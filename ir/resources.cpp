@@ -73,6 +73,23 @@ std::string gate_name(const Op& op) {
     return "?";
 }
 
+namespace {
+
+/// gate_name depends only on the kind, the control count (3 and 4-or-more are the last cases it
+/// tells apart) and, for a Phase, its angle in eighths of pi (-1 when not a multiple of pi/4). Ops
+/// are tallied under that key and each key is named once, so counting builds no string per op.
+constexpr size_t kControlBuckets = 5;
+constexpr size_t kAngleBuckets = 9;
+constexpr size_t kKinds = size_t(OpKind::Barrier) + 1;
+
+size_t name_key(const Op& op) {
+    const size_t nc = std::min<size_t>(op.controls.size(), kControlBuckets - 1);
+    const size_t e = op.kind == OpKind::Phase ? size_t(op.angles[0].eighths() + 1) : 0;
+    return (size_t(op.kind) * kControlBuckets + nc) * kAngleBuckets + e;
+}
+
+}  // namespace
+
 Resources count_resources(const Circuit& c) {
     Resources r;
     r.qubits = c.num_qubits();
@@ -82,22 +99,14 @@ Resources count_resources(const Circuit& c) {
         if (q.role == Role::Dirty) ++r.dirty_qubits;
     }
     std::vector<uint64_t> layer(c.num_qubits(), 0), tlayer(c.num_qubits(), 0);
+    std::vector<uint64_t> by_key(kKinds * kControlBuckets * kAngleBuckets, 0);
+    std::vector<const Op*> example(by_key.size(), nullptr);
     std::vector<uint32_t> wires;
-    // gate_name depends only on the kind, the number of controls (0, 1, 2, 3, more) and, for
-    // phases, the angle in eighths of pi: ops are tallied by that key and named once per key at
-    // the end, instead of building a string and searching the map for every op.
-    constexpr size_t kControlClasses = 5, kEighths = 9;
-    constexpr size_t kKeys = (size_t(OpKind::Barrier) + 1) * kControlClasses * kEighths;
-    std::vector<uint64_t> tally(kKeys, 0);
-    std::vector<size_t> example(kKeys, 0);
-    for (size_t i = 0; i < c.ops.size(); ++i) {
-        const Op& op = c.ops[i];
+    for (const Op& op : c.ops) {
         if (op.kind == OpKind::Barrier) continue;
         ++r.ops;
-        const size_t controls = std::min<size_t>(op.controls.size(), kControlClasses - 1);
-        const size_t eighth = op.kind == OpKind::Phase ? size_t(op.angles[0].eighths() + 1) : 0;
-        const size_t key = (size_t(op.kind) * kControlClasses + controls) * kEighths + eighth;
-        if (tally[key]++ == 0) example[key] = i;
+        const size_t key = name_key(op);
+        if (by_key[key]++ == 0) example[key] = &op;
         wires.clear();
         op.wires(wires);
         const bool t = is_t_like(op);
@@ -124,8 +133,8 @@ Resources count_resources(const Circuit& c) {
         r.depth = std::max(r.depth, l);
         r.t_depth = std::max(r.t_depth, tl);
     }
-    for (size_t key = 0; key < kKeys; ++key)
-        if (tally[key] != 0) r.gates[gate_name(c.ops[example[key]])] += tally[key];
+    for (size_t key = 0; key < by_key.size(); ++key)
+        if (by_key[key] != 0) r.gates[gate_name(*example[key])] += by_key[key];
     return r;
 }
 

@@ -18,7 +18,8 @@ enum class Combined : uint8_t {
 
 /// A combine rule: `earlier` is a live op the (possibly transformed) `mover` reached. The rule may
 /// change `earlier` (but may only add wires to it through the `added_wire` out-list) and add to
-/// `global` when it absorbs. It is called only with non-fence ops.
+/// `global` when it absorbs; when it returns Combined::No it must leave both as they were. It is
+/// called only with non-fence ops.
 using CombineRule = std::function<Combined(ir::Op& earlier, const ir::Op& mover, ir::Angle& global,
                                            std::vector<uint32_t>& added_wires, PassResult& result)>;
 
@@ -42,6 +43,10 @@ struct RewriteLimits {
 /// is left untouched (and false returned) when no rule fired. Pair ids of ops that took part in a
 /// combination other than "a compute op met its own uncompute and both vanished" are cleared on
 /// every op of that pair, since the halves are then no longer inverses of each other.
-bool rewrite_backwards(ir::Circuit& c, const CombineRule& combine, PassResult& result, RewriteLimits limits = {});
+/// With `right_to_left` the ops are read last to first, exactly as if they were reversed, swept and
+/// reversed back, without moving them. The ops are rewritten in place (see the .cpp); a combine
+/// rule must leave `earlier` as it was when it returns Combined::No.
+bool rewrite_backwards(ir::Circuit& c, const CombineRule& combine, PassResult& result, RewriteLimits limits = {},
+                       bool right_to_left = false);
 
 }  // namespace whittle::passes

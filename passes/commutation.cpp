@@ -35,6 +35,14 @@ WireRole target_role(OpKind k) {
     return WireRole::Other;
 }
 
+/// Calls f on every wire of op, in the order of Op::wires.
+template <class F>
+void for_each_wire(const Op& op, F&& f) {
+    if (op.target != ir::kNoWire) f(op.target);
+    if (op.target2 != ir::kNoWire) f(op.target2);
+    for (Lit l : op.controls) f(l.wire());
+}
+
 bool is_uncontrolled_x(const Op& op) {
     return op.kind == OpKind::X && op.controls.empty() && !op.is_conditioned();
 }
@@ -108,11 +116,9 @@ bool same_literals(const ir::LitVec& a, const ir::LitVec& b) {
 
 bool move_before(const Op& earlier, Op& mover, ir::Angle& global) {
     if (is_fence(earlier) || is_fence(mover)) return false;
-    std::vector<uint32_t> ws;
-    mover.wires(ws);
+    // The mover's wires are walked in place (no list is built: this runs once per step of every walk).
     bool shares = false;
-    for (uint32_t w : ws)
-        if (wire_role(earlier, w) != WireRole::None) shares = true;
+    for_each_wire(mover, [&](uint32_t w) { shares = shares || wire_role(earlier, w) != WireRole::None; });
     if (!shares) return true;
     if (orthogonal(earlier, mover)) return true;
     if (is_uncontrolled_x(earlier)) {
@@ -123,13 +129,15 @@ bool move_before(const Op& earlier, Op& mover, ir::Angle& global) {
         global = g;
         return true;
     }
-    for (uint32_t w : ws) {
+    bool roles_agree = true;
+    for_each_wire(mover, [&](uint32_t w) {
+        if (!roles_agree) return;
         const WireRole a = wire_role(earlier, w);
-        if (a == WireRole::None) continue;
+        if (a == WireRole::None) return;
         const WireRole b = wire_role(mover, w);
-        if (a != b || a == WireRole::Other) return false;
-    }
-    return true;
+        if (a != b || a == WireRole::Other) roles_agree = false;
+    });
+    return roles_agree;
 }
 
 }  // namespace whittle::passes

@@ -7,7 +7,7 @@ void apply_replacements(ir::Circuit& c, const std::vector<uint8_t>& dropped, std
     std::vector<ir::Op> out;
     out.reserve(c.ops.size());
     for (size_t i = 0; i < c.ops.size(); ++i) {
-        if (!dropped[i]) out.push_back(c.ops[i]);
+        if (!dropped[i]) out.push_back(std::move(c.ops[i]));  // c.ops is replaced below
         for (ir::Op& op : insert[i]) out.push_back(std::move(op));
     }
     c.ops = std::move(out);

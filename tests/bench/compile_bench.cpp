@@ -195,9 +195,10 @@ std::string scaling(double small_t, double big_t, uint64_t small_ops, uint64_t b
 
 void usage() {
     std::printf(
-        "usage: whittle_bench_compile [--quick] [--only KIND] [--max-ops N] [--compile-max-ops N]\n"
-        "                             [--mem-limit-gib G] [--timeout S]\n"
+        "usage: whittle_bench_compile [--quick] [--only KIND] [--sizes N,N,...] [--max-ops N]\n"
+        "                             [--compile-max-ops N] [--mem-limit-gib G] [--timeout S]\n"
         "  KIND: clifford-t, clifford-t-wq, high-level, adder, adder-wq, multiplier\n"
+        "  --sizes N,N,...    the sizes for every KIND run (ops, or bits for adders and multipliers)\n"
         "  --max-ops N        skip sizes with more than N input ops\n"
         "  --mem-limit-gib G  address-space limit of each measurement (default 8)\n"
         "  --timeout S        time limit of each measurement in seconds (default 900)\n"
@@ -224,6 +225,15 @@ int main(int argc, char** argv) {
                      {"adder", {64, 640}},           {"adder-wq", {64, 640}},            {"multiplier", {8, 24}}};
         } else if (a == "--only" && has_value) {
             only = argv[++i];
+        } else if (a == "--sizes" && has_value) {
+            // One list for every kind run (ops for the random inputs, bits for adders and multipliers).
+            std::vector<uint64_t> list;
+            for (char* p = argv[++i]; *p;) {
+                list.push_back(std::strtoull(p, &p, 10));
+                if (*p != ',') break;
+                ++p;
+            }
+            for (Case& cs : cases) cs.sizes = list;
         } else if (a == "--max-ops" && has_value) {
             max_ops = std::strtoull(argv[++i], nullptr, 10);
         } else if (a == "--mem-limit-gib" && has_value) {

@@ -3,6 +3,7 @@
 
 #include "passes/fold_phases.h"
 #include "passes/normalize.h"
+#include "passes/phase_folding.h"
 #include "pass_check.h"
 
 using namespace whittle;
@@ -93,6 +94,44 @@ TEST_CASE("negative literals: Phase(t; a & !b) and Phase(t; a & b) are folded as
              Op::phase(Angle::pi_times(-1, 4), {Lit::pos(0), Lit::pos(1)})};
     c = run(c);  // after X b the second term is a & !b_in: the same polynomial, opposite angle
     CHECK(c.ops.size() == 1);
+}
+
+/// fold_phase_terms with a given polynomial size cap; checks the state vector as `run` does.
+bool fold_with_cap(Circuit& c, size_t max_terms) {
+    Circuit before = c;
+    passes::FoldSettings s;
+    s.max_terms = max_terms;
+    passes::PassResult r;
+    const bool changed = passes::fold_phase_terms(c, s, r);
+    verify(c);
+    CHECK((circuit_unitary(before) - circuit_unitary(c)).norm() < 1e-9);
+    return changed;
+}
+
+TEST_CASE("the size cap: a wire value over max_terms monomials becomes a fresh variable, and its terms stop merging") {
+    // T q2; q2 ^= q0; q2 ^= q1 (x0 ^ x1 ^ x2: 3 monomials); q2 ^= q1; q2 ^= q0; T-dagger q2. Uncapped the
+    // value is back to x2 and the two terms cancel; under a cap of 2 the value was replaced by a fresh
+    // variable on the way, so the second term is on another polynomial and nothing merges.
+    Circuit c = wires(3);
+    c.ops = {t(2), cx(0, 2), cx(1, 2), cx(1, 2), cx(0, 2), t(2, -1)};
+    Circuit capped = c;
+    CHECK_FALSE(fold_with_cap(capped, 2));
+    CHECK(capped.ops.size() == c.ops.size());
+    CHECK(fold_with_cap(c, 64));
+    CHECK(count_resources(c).t_count == 0);
+}
+
+TEST_CASE("the size cap on products: a product over max_terms monomials is not a term") {
+    // (x0 ^ x2)(x1 ^ x3) has 4 monomials: under a cap of 2 the two CS on it are not terms; uncapped they
+    // merge into one CZ.
+    Circuit c = wires(4);
+    const Op cs = Op::phase(Angle::pi_times(1, 2), {Lit::pos(0), Lit::pos(1)});
+    c.ops = {cx(2, 0), cx(3, 1), cs, Op::one(OpKind::H, 2), cs};
+    Circuit capped = c;
+    CHECK_FALSE(fold_with_cap(capped, 2));
+    CHECK(fold_with_cap(c, 64));
+    REQUIRE(c.ops.size() == 4);
+    CHECK(c.ops[2].angles[0] == Angle::pi_times(1));
 }
 
 TEST_CASE("fold-phases on random circuits (state vector, global phase included)") {

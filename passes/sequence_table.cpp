@@ -1,0 +1,54 @@
+// Hash-consing table of uint32 sequences (see sequence_table.h).
+#include "passes/sequence_table.h"
+
+#include <algorithm>
+
+namespace whittle::passes {
+
+SequenceTable::SequenceTable() : start_{0}, slots_(64, 0) { intern({}); }
+
+uint64_t SequenceTable::hash(std::span<const uint32_t> s) {
+    uint64_t h = 0x9e3779b97f4a7c15ull ^ s.size();
+    for (uint32_t v : s) {
+        h ^= v;
+        h *= 0xff51afd7ed558ccdull;
+        h ^= h >> 32;
+    }
+    return h;
+}
+
+void SequenceTable::grow() {
+    std::vector<uint32_t> slots(slots_.size() * 2, 0);
+    const size_t mask = slots.size() - 1;
+    for (uint32_t id = 0; id < size(); ++id) {
+        size_t i = size_t(hashes_[id]) & mask;
+        while (slots[i] != 0) i = (i + 1) & mask;
+        slots[i] = id + 1;
+    }
+    slots_ = std::move(slots);
+}
+
+uint32_t SequenceTable::intern(std::span<const uint32_t> s) {
+    if (!s.empty() && s.data() >= data_.data() && s.data() < data_.data() + data_.size()) {
+        const std::vector<uint32_t> own(s.begin(), s.end());  // a piece of the table: the append may move it
+        return intern(own);
+    }
+    const uint64_t h = hash(s);
+    const size_t mask = slots_.size() - 1;
+    size_t i = size_t(h) & mask;
+    for (; slots_[i] != 0; i = (i + 1) & mask) {
+        const uint32_t id = slots_[i] - 1;
+        if (hashes_[id] != h) continue;
+        const std::span<const uint32_t> t = (*this)[id];
+        if (std::equal(s.begin(), s.end(), t.begin(), t.end())) return id;
+    }
+    const uint32_t id = size();
+    data_.insert(data_.end(), s.begin(), s.end());
+    start_.push_back(data_.size());
+    hashes_.push_back(h);
+    slots_[i] = id + 1;
+    if (2 * size_t(size()) > slots_.size()) grow();  // load factor at most 1/2
+    return id;
+}
+
+}  // namespace whittle::passes

@@ -1,0 +1,41 @@
+// Interning of sorted uint32 sequences (monomials, polynomials) so equal ones share one small id.
+#pragma once
+
+#include <cstdint>
+#include <span>
+#include <vector>
+
+namespace whittle::passes {
+
+/// A hash-consing table: every distinct sequence of uint32 gets one id, handed out in order of first
+/// `intern`, and id 0 is the empty sequence. Comparing two interned sequences is then comparing two
+/// integers, and a map keyed by them is a vector. The phase-folding engine interns monomials (sorted
+/// variable lists) and term polynomials (sorted monomial-id lists) here instead of hashing and copying
+/// vectors of vectors. Sequences are stored back to back in one array; the index is open addressing
+/// with linear probing over cached hashes, so an intern costs one hash of the sequence plus, on a hit,
+/// one comparison. Nothing is ever removed: the table lives as long as one engine run.
+class SequenceTable {
+public:
+    SequenceTable();
+
+    /// The id of `s` (the same id for every equal sequence).
+    uint32_t intern(std::span<const uint32_t> s);
+    /// The sequence of an id handed out by intern.
+    std::span<const uint32_t> operator[](uint32_t id) const {
+        return {data_.data() + start_[id], data_.data() + start_[id + 1]};
+    }
+    /// Number of distinct sequences (ids are 0 .. size() - 1).
+    uint32_t size() const { return uint32_t(hashes_.size()); }
+    /// The hash the table uses (callers that pair off sequences before interning reuse it).
+    static uint64_t hash(std::span<const uint32_t> s);
+
+private:
+    void grow();
+
+    std::vector<uint32_t> data_;    ///< all sequences back to back
+    std::vector<uint64_t> start_;   ///< id -> offset into data_; one extra entry marks the end
+    std::vector<uint64_t> hashes_;  ///< id -> hash of its sequence
+    std::vector<uint32_t> slots_;   ///< open-addressing index: id + 1, 0 = free
+};
+
+}  // namespace whittle::passes
