@@ -15,18 +15,14 @@ namespace {
 constexpr size_t kStackBytes = size_t(512) << 20;
 
 struct Job {
-    SourceManager* sm;
-    uint32_t file_id;
-    const LoadOptions* opts;
-    ir::Circuit result;
+    const std::function<void()>* work;
     std::exception_ptr error;
 };
 
 void* run_job(void* p) {
     Job* job = static_cast<Job*>(p);
     try {
-        Elaborator e(*job->sm, *job->opts);
-        job->result = e.run(job->file_id);
+        (*job->work)();
     } catch (...) {
         job->error = std::current_exception();
     }
@@ -35,8 +31,8 @@ void* run_job(void* p) {
 
 }  // namespace
 
-ir::Circuit parse_wq(SourceManager& sm, uint32_t file_id, const LoadOptions& opts) {
-    Job job{&sm, file_id, &opts, {}, nullptr};
+void run_on_parser_stack(const std::function<void()>& work) {
+    Job job{&work, nullptr};
     pthread_attr_t attr;
     pthread_t thread;
     bool threaded = pthread_attr_init(&attr) == 0 && pthread_attr_setstacksize(&attr, kStackBytes) == 0 &&
@@ -45,7 +41,12 @@ ir::Circuit parse_wq(SourceManager& sm, uint32_t file_id, const LoadOptions& opt
     if (threaded) pthread_join(thread, nullptr);
     else run_job(&job);  // no thread available: run here (the limits still bound the recursion)
     if (job.error) std::rethrow_exception(job.error);
-    return std::move(job.result);
+}
+
+ir::Circuit parse_wq(SourceManager& sm, uint32_t file_id, const LoadOptions& opts) {
+    ir::Circuit result;
+    run_on_parser_stack([&] { result = Elaborator(sm, opts).run(file_id); });
+    return result;
 }
 
 }  // namespace whittle::frontend

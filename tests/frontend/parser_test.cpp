@@ -8,6 +8,7 @@
 
 #include "frontend/ast.h"
 #include "frontend/wq_grammar.h"
+#include "frontend/wq_parser.h"
 
 using namespace whittle;
 using namespace whittle::frontend;
@@ -33,7 +34,8 @@ std::string error_of(const std::string& text, Limits limits = {}) {
     SymbolTable syms;
     uint32_t id = sm.add("t.wq", text);
     try {
-        parse_wq_syntax(sm, id, syms, limits);
+        // On the parser's own large stack, as parse_wq runs it: the nesting tests go to the limits.
+        run_on_parser_stack([&] { parse_wq_syntax(sm, id, syms, limits); });
     } catch (const UserError& e) {
         return std::to_string(e.loc().line) + ":" + std::to_string(e.loc().column) + ": " + e.what();
     }
