@@ -4,6 +4,8 @@
 # the reproducer is left in build-fuzz/fuzz-artifacts/.
 set -euo pipefail
 seconds=${1:-60}
+# A fixed seed makes a CI run repeatable (WHITTLE_FUZZ_SEED=0 lets libFuzzer pick one).
+seed=${WHITTLE_FUZZ_SEED:-1}
 root=$(cd "$(dirname "$0")/../.." && pwd)
 build=${WHITTLE_FUZZ_BUILD:-$root/build-fuzz}
 cxx=${WHITTLE_FUZZ_CXX:-$(command -v clang++-14 || command -v clang++ || true)}
@@ -24,7 +26,7 @@ run() {  # run NAME SEED_DIR...
   mkdir -p "$work"
   echo "== fuzz_$name for ${seconds}s"
   if ! ASAN_OPTIONS=detect_leaks=1:allocator_may_return_null=1 UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1 \
-      "$build/tests/fuzz/fuzz_$name" -max_total_time="$seconds" -timeout=20 -rss_limit_mb=2048 -max_len=8192 \
+      "$build/tests/fuzz/fuzz_$name" -max_total_time="$seconds" -seed="$seed" -timeout=20 -rss_limit_mb=2048 -max_len=8192 \
       -print_final_stats=1 -artifact_prefix="$build/fuzz-artifacts/$name-" "$work" "$@"; then
     echo "fuzz_$name: FAILED (see $build/fuzz-artifacts)" >&2
     status=1
