@@ -95,22 +95,7 @@ void Lexer::skip_space_and_comments() {
 }
 
 Token Lexer::scan() {
-    // Blanks and line ends between tokens take the short loop; comments and rarer spaces the long one.
-    for (;;) {
-        if (pos_ >= text_.size()) break;
-        const char b = text_[pos_];
-        if (b == ' ') {
-            ++pos_;
-            ++col_;
-        } else if (b == '\n') {
-            ++pos_;
-            ++line_;
-            col_ = 1;
-        } else {
-            if (b == '/' || b == '\t' || b == '\r' || b == '\f' || b == '\v') skip_space_and_comments();
-            break;
-        }
-    }
+    skip_space_and_comments();
     Token t;
     t.loc = here();
     if (pos_ >= text_.size()) return t;
