@@ -197,12 +197,14 @@ void usage() {
     std::printf(
         "usage: whittle_bench_compile [--quick] [--only KIND] [--sizes N,N,...] [--max-ops N]\n"
         "                             [--compile-max-ops N] [--mem-limit-gib G] [--timeout S]\n"
+        "       whittle_bench_compile --write KIND N FILE\n"
         "  KIND: clifford-t, clifford-t-wq, high-level, adder, adder-wq, multiplier\n"
         "  --sizes N,N,...    the sizes for every KIND run (ops, or bits for adders and multipliers)\n"
         "  --max-ops N        skip sizes with more than N input ops\n"
         "  --mem-limit-gib G  address-space limit of each measurement (default 8)\n"
         "  --timeout S        time limit of each measurement in seconds (default 900)\n"
-        "  --compile-max-ops N  sizes with more input ops are parsed and counted, not compiled\n");
+        "  --compile-max-ops N  sizes with more input ops are parsed and counted, not compiled\n"
+        "  --write KIND N FILE  only write the input of KIND at size N to FILE (to profile it alone)\n");
 }
 
 }  // namespace
@@ -240,6 +242,20 @@ int main(int argc, char** argv) {
             limits.mem_gib = std::strtod(argv[++i], nullptr);
         } else if (a == "--compile-max-ops" && has_value) {
             limits.compile_max_ops = std::strtoull(argv[++i], nullptr, 10);
+        } else if (a == "--write" && i + 3 < argc) {
+            std::string kind = argv[i + 1];
+            static const char* kKinds[] = {"clifford-t", "clifford-t-wq", "high-level", "adder", "adder-wq", "multiplier"};
+            if (std::find(std::begin(kKinds), std::end(kKinds), kind) == std::end(kKinds)) {
+                std::fprintf(stderr, "whittle_bench_compile: unknown KIND '%s'\n", kind.c_str());
+                return 2;
+            }
+            std::string text = make_input(kind, std::strtoull(argv[i + 2], nullptr, 10));
+            FILE* f = std::fopen(argv[i + 3], "wb");
+            if (!f || std::fwrite(text.data(), 1, text.size(), f) != text.size() || std::fclose(f) != 0) {
+                std::fprintf(stderr, "whittle_bench_compile: cannot write %s\n", argv[i + 3]);
+                return 1;
+            }
+            return 0;
         } else if (a == "--timeout" && has_value) {
             limits.timeout_s = unsigned(std::strtoul(argv[++i], nullptr, 10));
         } else {
