@@ -94,13 +94,18 @@ std::vector<std::string> parse_pass_list(const std::string& list) {
 std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string>& names, const PassOptions& opts,
                                    const PipelineHooks& hooks) {
     std::vector<PassRecord> records;
+    // One count per pass boundary: a pass's "after" is the next one's "before", and a pass that
+    // reports no change (PassResult::changed is false exactly then) leaves both alone.
+    ir::Resources before;
+    bool counted = false;
     for (size_t i = 0; i < names.size(); ++i) {
         const PassInfo* info = find_pass(names[i]);
         if (!info) throw UserError(fmt::format("unknown pass '{}'", names[i]));
         if (hooks.progress) hooks.progress(info->name, i, names.size());
         PassRecord rec;
         rec.name = info->name;
-        ir::Resources before = ir::count_resources(c);
+        if (!counted) before = ir::count_resources(c);
+        counted = true;
         rec.ops_before = c.ops.size();
         rec.t_before = int64_t(before.t_count);
         rec.cnot_before = int64_t(before.cnot_count);
@@ -112,8 +117,13 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
         rec.cpu_seconds = thread_cpu_seconds() - cpu0;
         rec.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
         rec.changed = rec.result.changed;
-        ir::verify(c);
-        ir::Resources after = ir::count_resources(c);
+        if (rec.changed) {
+            ir::verify(c);
+            before = ir::count_resources(c);
+        } else if (c.ops.size() != rec.ops_before) {
+            throw InternalError(fmt::format("pass '{}' changed the op count but reported no change", rec.name));
+        }
+        const ir::Resources& after = before;
         rec.ops_after = c.ops.size();
         rec.t_after = int64_t(after.t_count);
         rec.cnot_after = int64_t(after.cnot_count);
