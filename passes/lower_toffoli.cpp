@@ -100,8 +100,10 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
         cbit = int32_t(c.cregs[size_t(creg)].first);
     }
     const bool depth = opts.optimize_for == Metric::Depth;
-    std::vector<Op> out;
-    out.reserve(n_ops * 8);
+    // Room for the longest form (15 gates) and the X pairs around negative controls.
+    const size_t expanded = size_t(std::count_if(c.ops.begin(), c.ops.end(),
+                                                 [](const Op& op) { return is_toffoli(op) || is_ccz(op); }));
+    std::vector<Op> out = ir::take_spare_ops(n_ops + 20 * expanded);
     ir::Angle phase = c.global_phase;
     lowering::OpSink s(out, phase);
     for (size_t i = 0; i < n_ops; ++i) {
@@ -143,7 +145,7 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
         for (Lit l : op.controls)
             if (!l.positive()) s.x(l.wire());
     }
-    c.ops = std::move(out);
+    c.replace_ops(std::move(out));
     c.global_phase = phase;
     r.changed = true;
     return r;

@@ -109,7 +109,7 @@ bool same_op(const Op& a, const Op& b) {
 
 PassResult normalize(ir::Circuit& c, const PassOptions&) {
     PassResult result;
-    Normalizer n{{}, {}, result};
+    Normalizer n{ir::take_spare_ops(c.ops.size() + c.ops.size() / 8), {}, result};
     n.out.reserve(c.ops.size());
     for (const Op& op : c.ops) n.add(op);
     bool changed = n.out.size() != c.ops.size() || !n.global.is_zero();
@@ -118,7 +118,7 @@ PassResult normalize(ir::Circuit& c, const PassOptions&) {
     const int64_t delta = int64_t(c.ops.size()) - int64_t(n.out.size());
     if (delta > 0) result.count("ops-dropped", delta);
     if (delta < 0) result.count("ops-split", -delta);
-    c.ops = std::move(n.out);
+    c.replace_ops(std::move(n.out));
     c.global_phase += n.global;
     result.changed = true;
     return result;

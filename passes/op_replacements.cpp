@@ -4,13 +4,14 @@
 namespace whittle::passes {
 
 void apply_replacements(ir::Circuit& c, const std::vector<uint8_t>& dropped, std::vector<std::vector<ir::Op>>& insert) {
-    std::vector<ir::Op> out;
-    out.reserve(c.ops.size());
+    size_t inserted = 0;
+    for (const std::vector<ir::Op>& ops : insert) inserted += ops.size();
+    std::vector<ir::Op> out = ir::take_spare_ops(c.ops.size() + inserted);
     for (size_t i = 0; i < c.ops.size(); ++i) {
         if (!dropped[i]) out.push_back(std::move(c.ops[i]));  // c.ops is replaced below
         for (ir::Op& op : insert[i]) out.push_back(std::move(op));
     }
-    c.ops = std::move(out);
+    c.replace_ops(std::move(out));
 }
 
 }  // namespace whittle::passes
