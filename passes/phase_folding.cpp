@@ -144,6 +144,8 @@ private:
         if (a.size() * b.size() > cap * cap) return false;
         out.clear();
         if (a.empty() || b.empty()) return true;
+        // Most products over the cap are refused; the bound refuses them before forming them.
+        if (a.size() * b.size() > cap && surviving_lower_bound(a, b) > cap) return false;
         arena_.clear();
         products_.clear();
         for (uint32_t ma : a)
@@ -195,12 +197,46 @@ private:
         return true;
     }
 
-    /// The product of the op's literals, or false over the cap.
+    /// A lower bound on the monomials of a * b (a xor-sum of the monomial products) that survive
+    /// the pairing off: the products m * n of a monomial m of a and n of b that both avoid every
+    /// variable a and b share are pairwise distinct (m is (m * n) restricted to a's own variables,
+    /// n likewise) and unlike every other product (those hold a shared variable), so none cancels.
+    size_t surviving_lower_bound(const Poly& a, const Poly& b) {
+        if (var_mark_.size() < next_var_) var_mark_.resize(size_t(next_var_) + next_var_ / 2, 0);
+        if (mark_ >= 0xfffffffcu) {  // about to wrap: clear the marks once
+            std::fill(var_mark_.begin(), var_mark_.end(), 0);
+            mark_ = 0;
+        }
+        mark_ += 2;
+        const uint32_t in_a = mark_, shared = mark_ + 1;  // a variable's mark this call
+        for (uint32_t m : a)
+            for (uint32_t v : monomials_[m]) var_mark_[v] = in_a;
+        for (uint32_t m : b)
+            for (uint32_t v : monomials_[m])
+                if (var_mark_[v] == in_a) var_mark_[v] = shared;
+        auto own = [&](const Poly& f) {
+            size_t n = 0;
+            for (uint32_t m : f) {
+                const std::span<const uint32_t> vars = monomials_[m];
+                n += std::none_of(vars.begin(), vars.end(), [&](uint32_t v) { return var_mark_[v] == shared; });
+            }
+            return n;
+        };
+        return own(a) * own(b);
+    }
+
+    /// The product of the op's literals, or false over the cap. (1 * f = f: the first literal is
+    /// the start, so one-literal products form nothing.)
     bool product(const Op& op, Poly& prod) {
-        prod.assign(1, 0);
+        if (op.controls.empty()) {
+            prod.assign(1, 0);
+            return true;
+        }
+        prod = literal(op.controls[0]);
+        if (prod.size() > s_.max_terms) return false;
         Poly next;
-        for (Lit l : op.controls) {
-            if (!times(prod, literal(l), s_.max_terms, next)) return false;
+        for (size_t j = 1; j < op.controls.size(); ++j) {
+            if (!times(prod, literal(op.controls[j]), s_.max_terms, next)) return false;
             prod.swap(next);
         }
         return true;
@@ -450,6 +486,8 @@ private:
     std::vector<Product> products_;
     std::vector<uint32_t> slot_stamp_, slot_product_;  ///< the pairing table; a slot is used when its stamp is stamp_
     uint32_t stamp_ = 0;
+    std::vector<uint32_t> var_mark_;  ///< surviving_lower_bound's marks per variable
+    uint32_t mark_ = 0;
 };
 
 }  // namespace
