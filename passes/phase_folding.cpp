@@ -105,25 +105,65 @@ class Folder {
 public:
     Folder(ir::Circuit& c, const FoldSettings& s) : c_(c), s_(s) {}
 
+    /// One round: reads the circuit, chooses a plan and, when it changes anything, re-emits the ops.
     bool run(PassResult& result) {
         collect();
+        bool expanded = false;
+        Plan chosen = choose(expanded);
+        if (!chosen.merges && !expanded) return false;
+        emit(chosen, expanded, result);
+        if (expanded) result.count("products-expanded", expanded_);
+        else last_plain_ = std::move(chosen);
+        last_expanded_ = expanded;
+        return true;
+    }
+
+    /// After a round that changed the circuit: whether the next round would change it again. After
+    /// an expansion that takes a real round (the new parities change the terms). Otherwise the next
+    /// round would read the same wire values (only phase terms changed) and so the same terms, each
+    /// group merged into its first term; that list is built from this round's and the choice made on
+    /// it, without reading the circuit again. A merged AND term could change its expansion (the
+    /// angle decides whether and how it expands): then this answers yes and the next round is real.
+    bool next_round_changes() {
+        if (last_expanded_) return true;
+        const Plan& plan = last_plain_;
+        std::vector<OpTerm> next;
+        next.reserve(real_.size());
+        for (size_t i = 0; i < real_.size(); ++i) {
+            const Group& g = plan.groups[plan.group_of[i]];
+            if (g.size == 1) {  // emitted as it was
+                next.push_back(real_[i]);
+                continue;
+            }
+            if (g.first != i) continue;  // merged into the first
+            Term t = real_[i].term;
+            if (t.literals >= 2) return true;
+            t.alpha = t.constant ? -g.total : g.total;  // as emit writes it (extra is only for emit)
+            if (t.alpha.is_zero()) continue;
+            next.push_back(OpTerm{t, 0, 0});
+        }
+        real_ = std::move(next);
+        bool expanded = false;
+        const Plan p = choose(expanded);
+        return p.merges || expanded;
+    }
+
+private:
+    /// The plan of this round: every term as read, or the expansion plan when it costs less.
+    Plan choose(bool& expanded) {
         Plan plain;
         plain.terms.reserve(real_.size());
         for (const OpTerm& t : real_) plain.terms.push_back(t.term);
         plain.build(polys_.size());
-        Plan chosen = std::move(plain);
-        bool expanded = false;
+        expanded = false;
         if (s_.expand_products && !subterms_.empty()) {
             Plan wide = expansion_plan();
-            if (wide.cost() < chosen.cost()) {
-                chosen = std::move(wide);
+            if (wide.cost() < plain.cost()) {
                 expanded = true;
+                return wide;
             }
         }
-        if (!chosen.merges && !expanded) return false;
-        emit(chosen, expanded, result);
-        if (expanded) result.count("products-expanded", expanded_);
-        return true;
+        return plain;
     }
 
 private:
@@ -375,6 +415,7 @@ private:
     /// Expands the products some of whose parities occur elsewhere (another term, or another
     /// product's expansion).
     Plan expansion_plan() {
+        expanded_ = 0;
         std::vector<uint32_t> sources(polys_.size(), 0);
         for (const OpTerm& t : real_) {
             if (t.sub_count == 0) {
@@ -476,6 +517,8 @@ private:
     std::vector<OpTerm> real_;     ///< the terms of the circuit, in op order
     std::vector<Term> subterms_;   ///< parity expansions of the expandable AND terms
     int64_t expanded_ = 0;
+    Plan last_plain_;             ///< the plan run() emitted, when it expanded nothing
+    bool last_expanded_ = false;
     /// Scratch of times(): the monomial products of one polynomial product, back to back.
     struct Product {
         uint64_t hash;
@@ -493,7 +536,14 @@ private:
 }  // namespace
 
 bool fold_phase_terms(ir::Circuit& c, const FoldSettings& settings, PassResult& result) {
-    return Folder(c, settings).run(result);
+    bool changed = false;
+    for (size_t round = 0; round < settings.rounds; ++round) {
+        Folder folder(c, settings);
+        if (!folder.run(result)) break;
+        changed = true;
+        if (round + 1 < settings.rounds && !folder.next_round_changes()) break;
+    }
+    return changed;
 }
 
 }  // namespace whittle::passes

@@ -1,6 +1,7 @@
 // fold-phases: phase folding identities (Amy, Maslov, Mosca 2014, arXiv:1303.2042) and random circuits.
 #include <doctest/doctest.h>
 
+#include "ir/printer.h"
 #include "passes/fold_phases.h"
 #include "passes/normalize.h"
 #include "passes/phase_folding.h"
@@ -153,4 +154,25 @@ TEST_CASE("fold-phases never raises the non-Clifford term count; random Clifford
         Circuit again = c;
         CHECK_FALSE(passes::fold_phases(again, {}).changed);
     }
+}
+
+TEST_CASE("the engine stops its rounds early only when another round would change nothing") {
+    // Reference: rounds run one at a time, each reading the circuit again, until one changes nothing
+    // (at most 4, as fold-phases). The engine's prediction of the next round must give the same circuit.
+    std::mt19937_64 rng(53);
+    int several_rounds = 0;
+    for (int i = 0; i < 400; ++i) {
+        Circuit c = random_circuit(rng);
+        passes::normalize(c, {});
+        Circuit reference = c;
+        passes::FoldSettings one;
+        one.expand_products = true;
+        int rounds = 0;
+        for (passes::PassResult r; rounds < 4 && passes::fold_phase_terms(reference, one, r);) ++rounds;
+        several_rounds += rounds >= 2;
+        passes::fold_phases(c, {});
+        CHECK(print_wq(c) == print_wq(reference));
+        CHECK(c.global_phase == reference.global_phase);
+    }
+    CHECK(several_rounds > 0);
 }
