@@ -6,6 +6,7 @@
 
 #include <boost/container/small_vector.hpp>
 
+#include "ir/error.h"
 #include "passes/sequence_table.h"
 
 namespace whittle::passes {
@@ -24,43 +25,70 @@ constexpr uint32_t kNone = 0xffffffffu;
 /// kept in this form (small, mostly without heap) and only term polynomials are interned.
 using Poly = boost::container::small_vector<uint32_t, 4>;
 
-/// a xor b: the symmetric difference of the sorted monomial ids.
-Poly poly_xor(const Poly& a, const Poly& b) {
-    Poly r;
-    r.reserve(a.size() + b.size());
-    std::set_symmetric_difference(a.begin(), a.end(), b.begin(), b.end(), std::back_inserter(r));
-    return r;
+/// a xor b: the symmetric difference of the sorted monomial ids, into `out`.
+void poly_xor(const Poly& a, const Poly& b, Poly& out) {
+    out.clear();
+    out.reserve(a.size() + b.size());
+    std::set_symmetric_difference(a.begin(), a.end(), b.begin(), b.end(), std::back_inserter(out));
 }
 
-Poly negated(const Poly& a) {
-    static const Poly one{0};
-    return poly_xor(a, one);
+Poly poly_xor(const Poly& a, const Poly& b) {
+    Poly r;
+    poly_xor(a, b, r);
+    return r;
 }
 
 bool has_constant(const Poly& f) { return !f.empty() && f.front() == 0; }
 
+/// f ^ 1: the constant monomial (id 0, first when present) comes or goes.
+void toggle_constant(Poly& f) {
+    if (has_constant(f)) f.erase(f.begin());
+    else f.insert(f.begin(), 0u);
+}
+
+/// The constant part of a term, e^{i extra}, as a function of its angle alpha (see Term::extra).
+enum Extra : uint8_t {
+    kNoExtra = 0,
+    kMinusHalf = 1,  ///< -alpha / 2: an RZ(alpha) = e^{-i alpha/2} Phase(alpha)
+    kMinus = 2,      ///< -alpha: a parity over an odd number of negative literals (alpha = -phi)
+};
+
 /// e^{i (alpha * f + extra)} with f = key ^ constant, located at op `op` (subset 0: the op itself;
 /// otherwise the parity over the op's literals in that bit mask). `key` is an interned polynomial.
+/// 32 bytes: there is one per phase op of the circuit.
 struct Term {
     uint32_t op = 0;
-    uint32_t subset = 0;
     uint32_t key = 0;
-    uint32_t literals = 1;  ///< k of the AND term (1 for parities and one-wire phases)
-    bool constant = false;
+    /// An expandable AND term: its 2^literals - 1 parity terms start here in the engine's subterms_.
+    uint32_t sub_first = kNone;
+    uint16_t literals = 1;  ///< k of the AND term (1 for parities and one-wire phases)
+    uint8_t subset = 0;
+    bool constant : 1 = false;
+    uint8_t extra : 2 = kNoExtra;  ///< an Extra: the constant phase follows from alpha
     Angle alpha;
-    Angle extra;
-    Angle effective() const { return constant ? -alpha : alpha; }       ///< coefficient of key
-    Angle global_part() const { return extra + (constant ? alpha : Angle()); }
+    Angle effective() const { return constant ? -alpha : alpha; }  ///< coefficient of key
+    Angle extra_angle() const {
+        if (extra == kMinusHalf) return -alpha.divided_by(2);
+        return extra == kMinus ? -alpha : Angle();
+    }
+    Angle global_part() const { return extra_angle() + (constant ? alpha : Angle()); }
+    uint32_t sub_count() const { return sub_first == kNone ? 0 : (1u << literals) - 1; }
 };
 
 struct Group {
-    size_t first = 0;  ///< index into the plan's term list
-    size_t size = 0;
-    Angle total;       ///< coefficient of the key
+    uint32_t first = 0;  ///< index into the plan's term list
+    uint32_t size = 0;
+    Angle total;         ///< coefficient of the key
 };
 
 struct Plan {
-    std::vector<Term> terms;
+    Plan() = default;
+    Plan(Plan&&) = default;  // moving keeps `own`'s buffer, so `terms` stays valid
+    Plan& operator=(Plan&&) = default;
+    Plan(const Plan&) = delete;
+
+    std::vector<Term> own;         ///< the terms of an expansion plan (a plain plan reads the engine's)
+    std::span<const Term> terms;   ///< in op order
     std::vector<uint32_t> group_of;
     std::vector<Group> groups;
     bool merges = false;
@@ -69,11 +97,12 @@ struct Plan {
     void build(uint32_t keys) {
         std::vector<uint32_t> group_of_key(keys, kNone);
         group_of.assign(terms.size(), 0);
+        groups.reserve(terms.size());
         for (size_t i = 0; i < terms.size(); ++i) {
             uint32_t& gk = group_of_key[terms[i].key];
             if (gk == kNone) {
                 gk = uint32_t(groups.size());
-                groups.push_back(Group{i, 0, Angle()});
+                groups.push_back(Group{uint32_t(i), 0, Angle()});
             }
             Group& g = groups[gk];
             g.total += terms[i].effective();
@@ -92,13 +121,6 @@ struct Plan {
         }
         return c;
     }
-};
-
-/// A term of the circuit as read (real_) with the range of its parity expansion in subterms_.
-struct OpTerm {
-    Term term;
-    uint32_t sub_first = 0;
-    uint32_t sub_count = 0;  ///< 0: not expandable
 };
 
 class Folder {
@@ -127,7 +149,7 @@ public:
     bool next_round_changes() {
         if (last_expanded_) return true;
         const Plan& plan = last_plain_;
-        std::vector<OpTerm> next;
+        std::vector<Term> next;
         next.reserve(real_.size());
         for (size_t i = 0; i < real_.size(); ++i) {
             const Group& g = plan.groups[plan.group_of[i]];
@@ -136,12 +158,13 @@ public:
                 continue;
             }
             if (g.first != i) continue;  // merged into the first
-            Term t = real_[i].term;
+            Term t = real_[i];
             if (t.literals >= 2) return true;
-            t.alpha = t.constant ? -g.total : g.total;  // as emit writes it (extra is only for emit)
+            t.alpha = t.constant ? -g.total : g.total;  // as emit writes it
             if (t.alpha.is_zero()) continue;
-            next.push_back(OpTerm{t, 0, 0});
+            next.push_back(t);
         }
+        last_plain_ = Plan();  // it reads real_
         real_ = std::move(next);
         bool expanded = false;
         const Plan p = choose(expanded);
@@ -152,8 +175,7 @@ private:
     /// The plan of this round: every term as read, or the expansion plan when it costs less.
     Plan choose(bool& expanded) {
         Plan plain;
-        plain.terms.reserve(real_.size());
-        for (const OpTerm& t : real_) plain.terms.push_back(t.term);
+        plain.terms = real_;
         plain.build(polys_.size());
         expanded = false;
         if (s_.expand_products && !subterms_.empty()) {
@@ -167,7 +189,17 @@ private:
     }
 
 private:
-    Poly literal(Lit l) const { return l.positive() ? vals_[l.wire()] : negated(vals_[l.wire()]); }
+    Poly literal(Lit l) const {
+        Poly f = vals_[l.wire()];
+        if (!l.positive()) toggle_constant(f);
+        return f;
+    }
+
+    /// The number of monomials of literal(l), without forming it.
+    size_t literal_size(Lit l) const {
+        const Poly& f = vals_[l.wire()];
+        return l.positive() ? f.size() : has_constant(f) ? f.size() - 1 : f.size() + 1;
+    }
 
     uint32_t var_monomial(uint32_t v) {
         const uint32_t one[1] = {v};
@@ -232,7 +264,9 @@ private:
         }
         if (survivors > cap) return false;
         for (const Product& p : products_)
-            if (p.odd) out.push_back(monomials_.intern(vars(p)));
+            if (p.odd) monomials_.prefetch(p.hash);
+        for (const Product& p : products_)
+            if (p.odd) out.push_back(monomials_.intern(vars(p), p.hash));
         std::sort(out.begin(), out.end());
         return true;
     }
@@ -272,8 +306,8 @@ private:
             prod.assign(1, 0);
             return true;
         }
+        if (literal_size(op.controls[0]) > s_.max_terms) return false;
         prod = literal(op.controls[0]);
-        if (prod.size() > s_.max_terms) return false;
         Poly next;
         for (size_t j = 1; j < op.controls.size(); ++j) {
             if (!times(prod, literal(op.controls[j]), s_.max_terms, next)) return false;
@@ -282,21 +316,24 @@ private:
         return true;
     }
 
-    Term make_term(uint32_t op, uint32_t subset, const Poly& f, Angle alpha, Angle extra, uint32_t literals) {
+    /// The term e^{i alpha f} with f = `f` ^ `negate` (kept as an interned key and a constant).
+    Term make_term(uint32_t op, uint32_t subset, const Poly& f, bool negate, Angle alpha, Extra extra,
+                   uint32_t literals) {
         Term t;
         t.op = op;
-        t.subset = subset;
-        t.constant = has_constant(f);
+        t.subset = uint8_t(subset);
+        const bool c = has_constant(f);
+        t.constant = c != negate;
         const std::span<const uint32_t> key(f.data(), f.size());
-        t.key = polys_.intern(t.constant ? key.subspan(1) : key);
+        t.key = polys_.intern(c ? key.subspan(1) : key);
         t.alpha = alpha;
         t.extra = extra;
-        t.literals = literals;
+        t.literals = uint16_t(literals);
         return t;
     }
 
-    void add_term(uint32_t op, const Poly& f, Angle alpha, Angle extra, uint32_t literals) {
-        real_.push_back(OpTerm{make_term(op, 0, f, alpha, extra, literals), 0, 0});
+    void add_term(uint32_t op, const Poly& f, bool negate, Angle alpha, Extra extra, uint32_t literals) {
+        real_.push_back(make_term(op, 0, f, negate, alpha, extra, literals));
     }
 
     void collect() {
@@ -304,6 +341,7 @@ private:
         vals_.resize(n);
         for (uint32_t w = 0; w < n; ++w) vals_[w] = Poly{var_monomial(w)};
         next_var_ = n;
+        real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
         for (uint32_t i = 0; i < c_.ops.size(); ++i) step(i, c_.ops[i]);
     }
 
@@ -318,14 +356,25 @@ private:
         }
         switch (op.kind) {
         case OpKind::X: {
-            Poly prod;
-            if (!product(op, prod)) {
-                fresh(op.target);
-                return;
+            // target ^= product; the new value is formed in scratch_ and swapped in, so the old
+            // value's storage is the next scratch (no allocation per op).
+            if (op.controls.size() == 1) {  // a CNOT: the product is the literal itself
+                const Lit l = op.controls[0];
+                if (literal_size(l) > s_.max_terms) {
+                    fresh(op.target);
+                    return;
+                }
+                poly_xor(vals_[op.target], vals_[l.wire()], scratch_);
+                if (!l.positive()) toggle_constant(scratch_);
+            } else {
+                if (!product(op, prod_)) {
+                    fresh(op.target);
+                    return;
+                }
+                poly_xor(vals_[op.target], prod_, scratch_);
             }
-            Poly v = poly_xor(vals_[op.target], prod);
-            if (v.size() > s_.max_terms) fresh(op.target);
-            else vals_[op.target] = std::move(v);
+            if (scratch_.size() > s_.max_terms) fresh(op.target);
+            else vals_[op.target].swap(scratch_);
             return;
         }
         case OpKind::Swap:
@@ -337,10 +386,16 @@ private:
             return;
         case OpKind::Phase: {
             if (op.pair != 0) return;
-            Poly prod;
-            if (!product(op, prod)) return;  // too big to compare: not a term
             const uint32_t k = uint32_t(op.controls.size());
-            add_term(i, prod, op.angles[0], Angle(), k);
+            if (k > 0xffff) return;  // not a term (its cost 2^k - 1 would not fit either)
+            if (k == 1) {  // the literal itself, read in place
+                const Lit l = op.controls[0];
+                if (literal_size(l) > s_.max_terms) return;
+                add_term(i, vals_[l.wire()], !l.positive(), op.angles[0], kNoExtra, 1);
+                return;
+            }
+            if (!product(op, prod_)) return;  // too big to compare: not a term
+            add_term(i, prod_, false, op.angles[0], kNoExtra, k);
             // Expand only when the parity terms stay Clifford+T (angle / 2^{k-1} a multiple of pi/4:
             // CS, CZ, CCZ): finer parities would need rotation synthesis where the product lowers
             // exactly through Toffolis.
@@ -353,13 +408,13 @@ private:
             if (op.pair != 0) return;
             Poly sum;
             for (Lit l : op.controls) sum = poly_xor(sum, vals_[l.wire()]);
-            add_term(i, sum, op.angles[0], Angle(), 1);
+            add_term(i, sum, false, op.angles[0], kNoExtra, 1);
             return;
         }
         case OpKind::RZ:
             if (op.pair != 0 || !op.controls.empty()) return;
             // RZ(t) = e^{-it/2} Phase(t) with the stored angle t.
-            add_term(i, vals_[op.target], op.angles[0], -op.angles[0].divided_by(2), 1);
+            add_term(i, vals_[op.target], false, op.angles[0], kMinusHalf, 1);
             return;
         case OpKind::H:
         case OpKind::Y:
@@ -386,9 +441,7 @@ private:
     void expand(uint32_t i, const Op& op) {
         const uint32_t k = uint32_t(op.controls.size());
         const Angle base = op.angles[0].divided_by(int64_t(1) << (k - 1));
-        OpTerm& owner = real_.back();
-        owner.sub_first = uint32_t(subterms_.size());
-        owner.sub_count = (1u << k) - 1;
+        real_.back().sub_first = uint32_t(subterms_.size());
         for (uint32_t mask = 1; mask < (1u << k); ++mask) {
             Poly sum;
             int size = 0, negs = 0;
@@ -398,18 +451,17 @@ private:
                     ++size;
                     if (!op.controls[b].positive()) ++negs;
                 }
-            Angle phi = size % 2 == 1 ? base : -base;
-            Angle extra;
-            if (negs % 2 == 1) {  // e^{i phi (1 ^ P)} = e^{i phi} e^{-i phi P}
-                extra = phi;
-                phi = -phi;
-            }
-            subterms_.push_back(make_term(i, mask, sum, phi, extra, 1));
+            const Angle phi = size % 2 == 1 ? base : -base;
+            // e^{i phi (1 ^ P)} = e^{i phi} e^{-i phi P}: angle -phi, constant part phi (exact, so
+            // -(-phi) gives phi back)
+            if (negs % 2 == 1) subterms_.push_back(make_term(i, mask, sum, false, -phi, kMinus, 1));
+            else subterms_.push_back(make_term(i, mask, sum, false, phi, kNoExtra, 1));
         }
     }
 
-    std::span<const Term> subterms_of(const OpTerm& t) const {
-        return {subterms_.data() + t.sub_first, t.sub_count};
+    std::span<const Term> subterms_of(const Term& t) const {
+        if (t.sub_first == kNone) return {};
+        return {subterms_.data() + t.sub_first, t.sub_count()};
     }
 
     /// Expands the products some of whose parities occur elsewhere (another term, or another
@@ -417,9 +469,9 @@ private:
     Plan expansion_plan() {
         expanded_ = 0;
         std::vector<uint32_t> sources(polys_.size(), 0);
-        for (const OpTerm& t : real_) {
-            if (t.sub_count == 0) {
-                ++sources[t.term.key];
+        for (const Term& t : real_) {
+            if (t.sub_first == kNone) {
+                ++sources[t.key];
                 continue;
             }
             const std::span<const Term> subs = subterms_of(t);
@@ -430,18 +482,43 @@ private:
             }
         }
         Plan p;
-        for (const OpTerm& t : real_) {
+        p.own.reserve(real_.size());
+        for (const Term& t : real_) {
             bool useful = false;
             for (const Term& s : subterms_of(t)) useful = useful || sources[s.key] >= 2;
             if (!useful) {
-                p.terms.push_back(t.term);
+                p.own.push_back(t);
                 continue;
             }
             ++expanded_;
-            for (const Term& s : subterms_of(t)) p.terms.push_back(s);
+            for (const Term& s : subterms_of(t)) p.own.push_back(s);
         }
+        p.terms = p.own;
         p.build(polys_.size());
         return p;
+    }
+
+    /// emit() for an op that carries exactly one term of the plan.
+    template <class Put>
+    static void rewrite_in_place(const Plan& plan, size_t index, Op& op, Angle& global, int64_t& removed, Put& put) {
+        const Term& t = plan.terms[index];
+        const Group& g = plan.groups[plan.group_of[index]];
+        if (g.size == 1 && t.subset == 0) {  // alone and not expanded: as it was
+            put(std::move(op));
+            return;
+        }
+        global += t.global_part();
+        const Angle a = t.constant ? -g.total : g.total;
+        if (g.first != index || a.is_zero()) {  // merged into the first, or the group sums to 0
+            if (g.first == index && t.constant) global += g.total;
+            ++removed;
+            return;
+        }
+        WHITTLE_ASSERT(t.subset == 0 && "a one-term op is the term of the op itself");
+        if (t.constant) global += g.total;
+        op.angles[0] = a;
+        if (op.kind == OpKind::RZ) global += a.divided_by(2);  // Phase(a) = e^{ia/2} RZ(a)
+        put(std::move(op));
     }
 
     /// Re-emits the ops with the plan's terms. Without expansion every op gives at most one op, so the
@@ -464,6 +541,10 @@ private:
         for (uint32_t i = 0; i < n; ++i) {
             if (next >= plan.terms.size() || plan.terms[next].op != i) {
                 put(std::move(c_.ops[i]));
+                continue;
+            }
+            if (next + 1 == plan.terms.size() || plan.terms[next + 1].op != i) {  // one term: no copy
+                rewrite_in_place(plan, next++, c_.ops[i], global, removed, put);
                 continue;
             }
             const Op op = c_.ops[i];  // a copy: in place, position i may be overwritten below
@@ -513,8 +594,9 @@ private:
     SequenceTable monomials_;  ///< monomial id -> sorted variables (id 0: the constant 1)
     SequenceTable polys_;      ///< term key id -> sorted monomial ids
     std::vector<Poly> vals_;   ///< each wire's current value
+    Poly scratch_, prod_;      ///< step()'s scratch values (kept to reuse their storage)
     uint32_t next_var_ = 0;
-    std::vector<OpTerm> real_;     ///< the terms of the circuit, in op order
+    std::vector<Term> real_;       ///< the terms of the circuit, in op order
     std::vector<Term> subterms_;   ///< parity expansions of the expandable AND terms
     int64_t expanded_ = 0;
     Plan last_plain_;             ///< the plan run() emitted, when it expanded nothing

@@ -5,6 +5,12 @@
 
 namespace whittle::passes {
 
+namespace {
+
+uint64_t slot_of(uint64_t h, uint32_t id) { return (h & 0xffffffff00000000ull) | (uint64_t(id) + 1); }
+
+}  // namespace
+
 SequenceTable::SequenceTable() : start_{0}, slots_(64, 0) { intern({}); }
 
 uint64_t SequenceTable::hash(std::span<const uint32_t> s) {
@@ -18,35 +24,36 @@ uint64_t SequenceTable::hash(std::span<const uint32_t> s) {
 }
 
 void SequenceTable::grow() {
-    std::vector<uint32_t> slots(slots_.size() * 2, 0);
+    // The hashes are not kept (8 bytes an id): they are computed again, reading data_ in order.
+    std::vector<uint64_t> slots(slots_.size() * 2, 0);
     const size_t mask = slots.size() - 1;
     for (uint32_t id = 0; id < size(); ++id) {
-        size_t i = size_t(hashes_[id]) & mask;
+        const uint64_t h = hash((*this)[id]);
+        size_t i = size_t(h) & mask;
         while (slots[i] != 0) i = (i + 1) & mask;
-        slots[i] = id + 1;
+        slots[i] = slot_of(h, id);
     }
     slots_ = std::move(slots);
 }
 
-uint32_t SequenceTable::intern(std::span<const uint32_t> s) {
+uint32_t SequenceTable::intern(std::span<const uint32_t> s, uint64_t h) {
     if (!s.empty() && s.data() >= data_.data() && s.data() < data_.data() + data_.size()) {
         const std::vector<uint32_t> own(s.begin(), s.end());  // a piece of the table: the append may move it
-        return intern(own);
+        return intern(own, h);
     }
-    const uint64_t h = hash(s);
+    const uint64_t tag = h & 0xffffffff00000000ull;
     const size_t mask = slots_.size() - 1;
     size_t i = size_t(h) & mask;
     for (; slots_[i] != 0; i = (i + 1) & mask) {
-        const uint32_t id = slots_[i] - 1;
-        if (hashes_[id] != h) continue;
+        if ((slots_[i] & 0xffffffff00000000ull) != tag) continue;
+        const uint32_t id = uint32_t(slots_[i]) - 1;
         const std::span<const uint32_t> t = (*this)[id];
         if (std::equal(s.begin(), s.end(), t.begin(), t.end())) return id;
     }
     const uint32_t id = size();
     data_.insert(data_.end(), s.begin(), s.end());
     start_.push_back(data_.size());
-    hashes_.push_back(h);
-    slots_[i] = id + 1;
+    slots_[i] = slot_of(h, id);
     if (2 * size_t(size()) > slots_.size()) grow();  // load factor at most 1/2
     return id;
 }
