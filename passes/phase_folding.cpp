@@ -201,9 +201,13 @@ private:
         return l.positive() ? f.size() : has_constant(f) ? f.size() - 1 : f.size() + 1;
     }
 
+    /// The monomial of a new variable v. One-variable monomials are not in the table's index: each
+    /// is made once, and a product that comes out as one variable finds it in var_monomial_.
     uint32_t var_monomial(uint32_t v) {
+        WHITTLE_ASSERT(v == var_monomial_.size() && "variables are made in order");
         const uint32_t one[1] = {v};
-        return monomials_.intern(one);
+        var_monomial_.push_back(monomials_.add_unindexed(one));
+        return var_monomial_.back();
     }
 
     void fresh(uint32_t w) { vals_[w] = Poly{var_monomial(next_var_++)}; }
@@ -264,9 +268,12 @@ private:
         }
         if (survivors > cap) return false;
         for (const Product& p : products_)
-            if (p.odd) monomials_.prefetch(p.hash);
-        for (const Product& p : products_)
-            if (p.odd) out.push_back(monomials_.intern(vars(p), p.hash));
+            if (p.odd && p.len != 1) monomials_.prefetch(p.hash);
+        for (const Product& p : products_) {
+            if (!p.odd) continue;
+            if (p.len == 1) out.push_back(var_monomial_[arena_[p.off]]);
+            else out.push_back(monomials_.intern(vars(p), p.hash));
+        }
         std::sort(out.begin(), out.end());
         return true;
     }
@@ -316,16 +323,18 @@ private:
         return true;
     }
 
-    /// The term e^{i alpha f} with f = `f` ^ `negate` (kept as an interned key and a constant).
-    Term make_term(uint32_t op, uint32_t subset, const Poly& f, bool negate, Angle alpha, Extra extra,
-                   uint32_t literals) {
+    /// The term e^{i alpha f} with f = `f` ^ `negate` (kept as an interned key and a constant), to be
+    /// stored at `where` (an index of real_, or kSub | an index of subterms_), where its key is set
+    /// when its batch is interned.
+    Term make_term(uint32_t where, uint32_t op, uint32_t subset, const Poly& f, bool negate, Angle alpha,
+                   Extra extra, uint32_t literals) {
         Term t;
         t.op = op;
         t.subset = uint8_t(subset);
         const bool c = has_constant(f);
         t.constant = c != negate;
         const std::span<const uint32_t> key(f.data(), f.size());
-        t.key = polys_.intern(c ? key.subspan(1) : key);
+        queue_key(where, c ? key.subspan(1) : key);
         t.alpha = alpha;
         t.extra = extra;
         t.literals = uint16_t(literals);
@@ -333,7 +342,32 @@ private:
     }
 
     void add_term(uint32_t op, const Poly& f, bool negate, Angle alpha, Extra extra, uint32_t literals) {
-        real_.push_back(make_term(op, 0, f, negate, alpha, extra, literals));
+        real_.push_back(make_term(uint32_t(real_.size()), op, 0, f, negate, alpha, extra, literals));
+        stored();
+    }
+
+    /// Term keys wait in a small batch before they are interned: each key's index slot is prefetched
+    /// when it is queued, so the cache misses of a batch (about one per key once the table outgrows
+    /// the caches) overlap instead of following one another.
+    void queue_key(uint32_t where, std::span<const uint32_t> key) {
+        const uint64_t h = SequenceTable::hash(key);
+        polys_.prefetch(h);
+        pending_.push_back(PendingKey{where, uint32_t(pending_words_.size()), uint32_t(key.size()), h});
+        pending_words_.insert(pending_words_.end(), key.begin(), key.end());
+    }
+
+    /// After a term is stored: interns a full batch.
+    void stored() {
+        if (pending_.size() >= kKeyBatch) intern_pending();
+    }
+
+    void intern_pending() {
+        for (const PendingKey& p : pending_) {
+            const uint32_t id = polys_.intern({pending_words_.data() + p.off, p.len}, p.hash);
+            (p.where & kSub ? subterms_[p.where & ~kSub] : real_[p.where]).key = id;
+        }
+        pending_.clear();
+        pending_words_.clear();
     }
 
     void collect() {
@@ -343,6 +377,7 @@ private:
         next_var_ = n;
         real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
         for (uint32_t i = 0; i < c_.ops.size(); ++i) step(i, c_.ops[i]);
+        intern_pending();
     }
 
     void step(uint32_t i, const Op& op) {
@@ -454,8 +489,10 @@ private:
             const Angle phi = size % 2 == 1 ? base : -base;
             // e^{i phi (1 ^ P)} = e^{i phi} e^{-i phi P}: angle -phi, constant part phi (exact, so
             // -(-phi) gives phi back)
-            if (negs % 2 == 1) subterms_.push_back(make_term(i, mask, sum, false, -phi, kMinus, 1));
-            else subterms_.push_back(make_term(i, mask, sum, false, phi, kNoExtra, 1));
+            const uint32_t where = kSub | uint32_t(subterms_.size());
+            if (negs % 2 == 1) subterms_.push_back(make_term(where, i, mask, sum, false, -phi, kMinus, 1));
+            else subterms_.push_back(make_term(where, i, mask, sum, false, phi, kNoExtra, 1));
+            stored();
         }
     }
 
@@ -612,6 +649,16 @@ private:
     std::vector<uint32_t> slot_stamp_, slot_product_;  ///< the pairing table; a slot is used when its stamp is stamp_
     uint32_t stamp_ = 0;
     std::vector<uint32_t> var_mark_;  ///< surviving_lower_bound's marks per variable
+    std::vector<uint32_t> var_monomial_;  ///< variable -> its one-variable monomial
+    static constexpr size_t kKeyBatch = 32;
+    static constexpr uint32_t kSub = 0x80000000u;  ///< PendingKey::where of a subterm
+    struct PendingKey {
+        uint32_t where;  ///< index into real_, or kSub | index into subterms_
+        uint32_t off, len;
+        uint64_t hash;
+    };
+    std::vector<PendingKey> pending_;
+    std::vector<uint32_t> pending_words_;
     uint32_t mark_ = 0;
 };
 

@@ -28,6 +28,7 @@ void SequenceTable::grow() {
     std::vector<uint64_t> slots(slots_.size() * 2, 0);
     const size_t mask = slots.size() - 1;
     for (uint32_t id = 0; id < size(); ++id) {
+        if (!indexed_[id]) continue;
         const uint64_t h = hash((*this)[id]);
         size_t i = size_t(h) & mask;
         while (slots[i] != 0) i = (i + 1) & mask;
@@ -36,11 +37,22 @@ void SequenceTable::grow() {
     slots_ = std::move(slots);
 }
 
-uint32_t SequenceTable::intern(std::span<const uint32_t> s, uint64_t h) {
+uint32_t SequenceTable::append(std::span<const uint32_t> s, bool indexed) {
+    const uint32_t id = size();
     if (!s.empty() && s.data() >= data_.data() && s.data() < data_.data() + data_.size()) {
-        const std::vector<uint32_t> own(s.begin(), s.end());  // a piece of the table: the append may move it
-        return intern(own, h);
+        const std::vector<uint32_t> own(s.begin(), s.end());  // a piece of the table: the insert may move it
+        data_.insert(data_.end(), own.begin(), own.end());
+    } else {
+        data_.insert(data_.end(), s.begin(), s.end());
     }
+    start_.push_back(data_.size());
+    indexed_.push_back(indexed);
+    return id;
+}
+
+uint32_t SequenceTable::add_unindexed(std::span<const uint32_t> s) { return append(s, false); }
+
+uint32_t SequenceTable::intern(std::span<const uint32_t> s, uint64_t h) {
     const uint64_t tag = h & 0xffffffff00000000ull;
     const size_t mask = slots_.size() - 1;
     size_t i = size_t(h) & mask;
@@ -50,11 +62,9 @@ uint32_t SequenceTable::intern(std::span<const uint32_t> s, uint64_t h) {
         const std::span<const uint32_t> t = (*this)[id];
         if (std::equal(s.begin(), s.end(), t.begin(), t.end())) return id;
     }
-    const uint32_t id = size();
-    data_.insert(data_.end(), s.begin(), s.end());
-    start_.push_back(data_.size());
+    const uint32_t id = append(s, true);
     slots_[i] = slot_of(h, id);
-    if (2 * size_t(size()) > slots_.size()) grow();  // load factor at most 1/2
+    if (2 * ++indexed_count_ > slots_.size()) grow();  // load factor at most 1/2
     return id;
 }
 

@@ -24,6 +24,11 @@ public:
     uint32_t intern(std::span<const uint32_t> s) { return intern(s, hash(s)); }
     /// The same with `h` = hash(s) already at hand.
     uint32_t intern(std::span<const uint32_t> s, uint64_t h);
+    /// Stores `s` under a new id without indexing it: for a caller that keeps its own map to such
+    /// sequences and never passes one of them to intern (the folding engine's one-variable
+    /// monomials, one per variable, each made once). Saves the probe of a table far larger than
+    /// the caches.
+    uint32_t add_unindexed(std::span<const uint32_t> s);
     /// Asks the processor to load the slot where a sequence of hash `h` starts its probe: a caller
     /// with many sequences to intern prefetches them all first, so their cache misses overlap.
     void prefetch(uint64_t h) const { __builtin_prefetch(slots_.data() + (size_t(h) & (slots_.size() - 1))); }
@@ -38,11 +43,14 @@ public:
 
 private:
     void grow();
+    uint32_t append(std::span<const uint32_t> s, bool indexed);
 
     std::vector<uint32_t> data_;   ///< all sequences back to back
     std::vector<uint64_t> start_;  ///< id -> offset into data_; one extra entry marks the end
     /// The open-addressing index: 0 = free, else (upper 32 bits of the hash) << 32 | (id + 1).
     std::vector<uint64_t> slots_;
+    std::vector<bool> indexed_;  ///< id -> in the index (not added by add_unindexed)
+    size_t indexed_count_ = 0;
 };
 
 }  // namespace whittle::passes

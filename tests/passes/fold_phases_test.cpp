@@ -139,6 +139,21 @@ TEST_CASE("fold-phases on random circuits (state vector, global phase included)"
     CHECK(check_pass_on_random(passes::fold_phases, 300, 51) > 50);
 }
 
+TEST_CASE("fold-phases on longer random circuits: many terms, their keys interned in several batches") {
+    std::mt19937_64 rng(54);
+    RandomSpec spec;
+    spec.min_ops = 150;
+    spec.max_ops = 300;
+    for (int i = 0; i < 40; ++i) {
+        Circuit c = random_circuit(rng, spec);
+        passes::normalize(c, {});
+        Circuit before = c;
+        passes::fold_phases(c, {});
+        verify(c);
+        CHECK((circuit_unitary(before) - circuit_unitary(c)).norm() < 1e-9);
+    }
+}
+
 TEST_CASE("fold-phases never raises the non-Clifford term count; random Clifford+T never get more T; idempotent") {
     std::mt19937_64 rng(52);
     RandomSpec ct;
