@@ -188,7 +188,6 @@ private:
         return plain;
     }
 
-private:
     Poly literal(Lit l) const {
         Poly f = vals_[l.wire()];
         if (!l.positive()) toggle_constant(f);
@@ -665,6 +664,7 @@ private:
 }  // namespace
 
 bool fold_phase_terms(ir::Circuit& c, const FoldSettings& settings, PassResult& result) {
+    WHITTLE_ASSERT(settings.max_expand_literals <= 8 && "a term's subset is a byte");
     bool changed = false;
     for (size_t round = 0; round < settings.rounds; ++round) {
         Folder folder(c, settings);

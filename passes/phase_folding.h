@@ -12,7 +12,7 @@ struct FoldSettings {
     /// Expand AND terms (Phase on k >= 2 literals) into parity terms when the expansion lowers the
     /// cost (see fold_phase_terms). Off at the low level, where no Parity ops may appear.
     bool expand_products = false;
-    /// Largest product expanded (2^k - 1 parity terms).
+    /// Largest product expanded (2^k - 1 parity terms); at most 8.
     size_t max_expand_literals = 3;
     /// A wire whose polynomial would exceed this many monomials gets a fresh variable instead.
     size_t max_terms = 64;
