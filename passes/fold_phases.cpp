@@ -9,8 +9,9 @@ PassResult fold_phases(ir::Circuit& c, const PassOptions&) {
     PassResult result;
     FoldSettings s;
     s.expand_products = true;
-    // An expansion can make parities that expose further merges and expansions: repeat a few rounds.
-    for (int round = 0; round < 4 && fold_phase_terms(c, s, result); ++round) result.changed = true;
+    // An expansion can make parities that expose further merges and expansions: a few rounds.
+    s.rounds = 4;
+    result.changed = fold_phase_terms(c, s, result);
     return result;
 }
 

@@ -6,6 +6,7 @@
 
 #include <boost/container/small_vector.hpp>
 
+#include "ir/error.h"
 #include "passes/sequence_table.h"
 
 namespace whittle::passes {
@@ -24,43 +25,70 @@ constexpr uint32_t kNone = 0xffffffffu;
 /// kept in this form (small, mostly without heap) and only term polynomials are interned.
 using Poly = boost::container::small_vector<uint32_t, 4>;
 
-/// a xor b: the symmetric difference of the sorted monomial ids.
-Poly poly_xor(const Poly& a, const Poly& b) {
-    Poly r;
-    r.reserve(a.size() + b.size());
-    std::set_symmetric_difference(a.begin(), a.end(), b.begin(), b.end(), std::back_inserter(r));
-    return r;
+/// a xor b: the symmetric difference of the sorted monomial ids, into `out`.
+void poly_xor(const Poly& a, const Poly& b, Poly& out) {
+    out.clear();
+    out.reserve(a.size() + b.size());
+    std::set_symmetric_difference(a.begin(), a.end(), b.begin(), b.end(), std::back_inserter(out));
 }
 
-Poly negated(const Poly& a) {
-    static const Poly one{0};
-    return poly_xor(a, one);
+Poly poly_xor(const Poly& a, const Poly& b) {
+    Poly r;
+    poly_xor(a, b, r);
+    return r;
 }
 
 bool has_constant(const Poly& f) { return !f.empty() && f.front() == 0; }
 
+/// f ^ 1: the constant monomial (id 0, first when present) comes or goes.
+void toggle_constant(Poly& f) {
+    if (has_constant(f)) f.erase(f.begin());
+    else f.insert(f.begin(), 0u);
+}
+
+/// The constant part of a term, e^{i extra}, as a function of its angle alpha (see Term::extra).
+enum Extra : uint8_t {
+    kNoExtra = 0,
+    kMinusHalf = 1,  ///< -alpha / 2: an RZ(alpha) = e^{-i alpha/2} Phase(alpha)
+    kMinus = 2,      ///< -alpha: a parity over an odd number of negative literals (alpha = -phi)
+};
+
 /// e^{i (alpha * f + extra)} with f = key ^ constant, located at op `op` (subset 0: the op itself;
 /// otherwise the parity over the op's literals in that bit mask). `key` is an interned polynomial.
+/// 32 bytes: there is one per phase op of the circuit.
 struct Term {
     uint32_t op = 0;
-    uint32_t subset = 0;
     uint32_t key = 0;
-    uint32_t literals = 1;  ///< k of the AND term (1 for parities and one-wire phases)
-    bool constant = false;
+    /// An expandable AND term: its 2^literals - 1 parity terms start here in the engine's subterms_.
+    uint32_t sub_first = kNone;
+    uint16_t literals = 1;  ///< k of the AND term (1 for parities and one-wire phases)
+    uint8_t subset = 0;
+    bool constant : 1 = false;
+    uint8_t extra : 2 = kNoExtra;  ///< an Extra: the constant phase follows from alpha
     Angle alpha;
-    Angle extra;
-    Angle effective() const { return constant ? -alpha : alpha; }       ///< coefficient of key
-    Angle global_part() const { return extra + (constant ? alpha : Angle()); }
+    Angle effective() const { return constant ? -alpha : alpha; }  ///< coefficient of key
+    Angle extra_angle() const {
+        if (extra == kMinusHalf) return -alpha.divided_by(2);
+        return extra == kMinus ? -alpha : Angle();
+    }
+    Angle global_part() const { return extra_angle() + (constant ? alpha : Angle()); }
+    uint32_t sub_count() const { return sub_first == kNone ? 0 : (1u << literals) - 1; }
 };
 
 struct Group {
-    size_t first = 0;  ///< index into the plan's term list
-    size_t size = 0;
-    Angle total;       ///< coefficient of the key
+    uint32_t first = 0;  ///< index into the plan's term list
+    uint32_t size = 0;
+    Angle total;         ///< coefficient of the key
 };
 
 struct Plan {
-    std::vector<Term> terms;
+    Plan() = default;
+    Plan(Plan&&) = default;  // moving keeps `own`'s buffer, so `terms` stays valid
+    Plan& operator=(Plan&&) = default;
+    Plan(const Plan&) = delete;
+
+    std::vector<Term> own;         ///< the terms of an expansion plan (a plain plan reads the engine's)
+    std::span<const Term> terms;   ///< in op order
     std::vector<uint32_t> group_of;
     std::vector<Group> groups;
     bool merges = false;
@@ -69,11 +97,12 @@ struct Plan {
     void build(uint32_t keys) {
         std::vector<uint32_t> group_of_key(keys, kNone);
         group_of.assign(terms.size(), 0);
+        groups.reserve(terms.size());
         for (size_t i = 0; i < terms.size(); ++i) {
             uint32_t& gk = group_of_key[terms[i].key];
             if (gk == kNone) {
                 gk = uint32_t(groups.size());
-                groups.push_back(Group{i, 0, Angle()});
+                groups.push_back(Group{uint32_t(i), 0, Angle()});
             }
             Group& g = groups[gk];
             g.total += terms[i].effective();
@@ -94,44 +123,90 @@ struct Plan {
     }
 };
 
-/// A term of the circuit as read (real_) with the range of its parity expansion in subterms_.
-struct OpTerm {
-    Term term;
-    uint32_t sub_first = 0;
-    uint32_t sub_count = 0;  ///< 0: not expandable
-};
-
 class Folder {
 public:
     Folder(ir::Circuit& c, const FoldSettings& s) : c_(c), s_(s) {}
 
+    /// One round: reads the circuit, chooses a plan and, when it changes anything, re-emits the ops.
     bool run(PassResult& result) {
         collect();
-        Plan plain;
-        plain.terms.reserve(real_.size());
-        for (const OpTerm& t : real_) plain.terms.push_back(t.term);
-        plain.build(polys_.size());
-        Plan chosen = std::move(plain);
         bool expanded = false;
-        if (s_.expand_products && !subterms_.empty()) {
-            Plan wide = expansion_plan();
-            if (wide.cost() < chosen.cost()) {
-                chosen = std::move(wide);
-                expanded = true;
-            }
-        }
+        Plan chosen = choose(expanded);
         if (!chosen.merges && !expanded) return false;
         emit(chosen, expanded, result);
         if (expanded) result.count("products-expanded", expanded_);
+        else last_plain_ = std::move(chosen);
+        last_expanded_ = expanded;
         return true;
     }
 
-private:
-    Poly literal(Lit l) const { return l.positive() ? vals_[l.wire()] : negated(vals_[l.wire()]); }
+    /// After a round that changed the circuit: whether the next round would change it again. After
+    /// an expansion that takes a real round (the new parities change the terms). Otherwise the next
+    /// round would read the same wire values (only phase terms changed) and so the same terms, each
+    /// group merged into its first term; that list is built from this round's and the choice made on
+    /// it, without reading the circuit again. A merged AND term could change its expansion (the
+    /// angle decides whether and how it expands): then this answers yes and the next round is real.
+    bool next_round_changes() {
+        if (last_expanded_) return true;
+        const Plan& plan = last_plain_;
+        std::vector<Term> next;
+        next.reserve(real_.size());
+        for (size_t i = 0; i < real_.size(); ++i) {
+            const Group& g = plan.groups[plan.group_of[i]];
+            if (g.size == 1) {  // emitted as it was
+                next.push_back(real_[i]);
+                continue;
+            }
+            if (g.first != i) continue;  // merged into the first
+            Term t = real_[i];
+            if (t.literals >= 2) return true;
+            t.alpha = t.constant ? -g.total : g.total;  // as emit writes it
+            if (t.alpha.is_zero()) continue;
+            next.push_back(t);
+        }
+        last_plain_ = Plan();  // it reads real_
+        real_ = std::move(next);
+        bool expanded = false;
+        const Plan p = choose(expanded);
+        return p.merges || expanded;
+    }
 
+private:
+    /// The plan of this round: every term as read, or the expansion plan when it costs less.
+    Plan choose(bool& expanded) {
+        Plan plain;
+        plain.terms = real_;
+        plain.build(polys_.size());
+        expanded = false;
+        if (s_.expand_products && !subterms_.empty()) {
+            Plan wide = expansion_plan();
+            if (wide.cost() < plain.cost()) {
+                expanded = true;
+                return wide;
+            }
+        }
+        return plain;
+    }
+
+    Poly literal(Lit l) const {
+        Poly f = vals_[l.wire()];
+        if (!l.positive()) toggle_constant(f);
+        return f;
+    }
+
+    /// The number of monomials of literal(l), without forming it.
+    size_t literal_size(Lit l) const {
+        const Poly& f = vals_[l.wire()];
+        return l.positive() ? f.size() : has_constant(f) ? f.size() - 1 : f.size() + 1;
+    }
+
+    /// The monomial of a new variable v. One-variable monomials are not in the table's index: each
+    /// is made once, and a product that comes out as one variable finds it in var_monomial_.
     uint32_t var_monomial(uint32_t v) {
+        WHITTLE_ASSERT(v == var_monomial_.size() && "variables are made in order");
         const uint32_t one[1] = {v};
-        return monomials_.intern(one);
+        var_monomial_.push_back(monomials_.add_unindexed(one));
+        return var_monomial_.back();
     }
 
     void fresh(uint32_t w) { vals_[w] = Poly{var_monomial(next_var_++)}; }
@@ -144,6 +219,8 @@ private:
         if (a.size() * b.size() > cap * cap) return false;
         out.clear();
         if (a.empty() || b.empty()) return true;
+        // Most products over the cap are refused; the bound refuses them before forming them.
+        if (a.size() * b.size() > cap && surviving_lower_bound(a, b) > cap) return false;
         arena_.clear();
         products_.clear();
         for (uint32_t ma : a)
@@ -190,37 +267,106 @@ private:
         }
         if (survivors > cap) return false;
         for (const Product& p : products_)
-            if (p.odd) out.push_back(monomials_.intern(vars(p)));
+            if (p.odd && p.len != 1) monomials_.prefetch(p.hash);
+        for (const Product& p : products_) {
+            if (!p.odd) continue;
+            if (p.len == 1) out.push_back(var_monomial_[arena_[p.off]]);
+            else out.push_back(monomials_.intern(vars(p), p.hash));
+        }
         std::sort(out.begin(), out.end());
         return true;
     }
 
-    /// The product of the op's literals, or false over the cap.
+    /// A lower bound on the monomials of a * b (a xor-sum of the monomial products) that survive
+    /// the pairing off: the products m * n of a monomial m of a and n of b that both avoid every
+    /// variable a and b share are pairwise distinct (m is (m * n) restricted to a's own variables,
+    /// n likewise) and unlike every other product (those hold a shared variable), so none cancels.
+    size_t surviving_lower_bound(const Poly& a, const Poly& b) {
+        if (var_mark_.size() < next_var_) var_mark_.resize(size_t(next_var_) + next_var_ / 2, 0);
+        if (mark_ >= 0xfffffffcu) {  // about to wrap: clear the marks once
+            std::fill(var_mark_.begin(), var_mark_.end(), 0);
+            mark_ = 0;
+        }
+        mark_ += 2;
+        const uint32_t in_a = mark_, shared = mark_ + 1;  // a variable's mark this call
+        for (uint32_t m : a)
+            for (uint32_t v : monomials_[m]) var_mark_[v] = in_a;
+        for (uint32_t m : b)
+            for (uint32_t v : monomials_[m])
+                if (var_mark_[v] == in_a) var_mark_[v] = shared;
+        auto own = [&](const Poly& f) {
+            size_t n = 0;
+            for (uint32_t m : f) {
+                const std::span<const uint32_t> vars = monomials_[m];
+                n += std::none_of(vars.begin(), vars.end(), [&](uint32_t v) { return var_mark_[v] == shared; });
+            }
+            return n;
+        };
+        return own(a) * own(b);
+    }
+
+    /// The product of the op's literals, or false over the cap. (1 * f = f: the first literal is
+    /// the start, so one-literal products form nothing.)
     bool product(const Op& op, Poly& prod) {
-        prod.assign(1, 0);
+        if (op.controls.empty()) {
+            prod.assign(1, 0);
+            return true;
+        }
+        if (literal_size(op.controls[0]) > s_.max_terms) return false;
+        prod = literal(op.controls[0]);
         Poly next;
-        for (Lit l : op.controls) {
-            if (!times(prod, literal(l), s_.max_terms, next)) return false;
+        for (size_t j = 1; j < op.controls.size(); ++j) {
+            if (!times(prod, literal(op.controls[j]), s_.max_terms, next)) return false;
             prod.swap(next);
         }
         return true;
     }
 
-    Term make_term(uint32_t op, uint32_t subset, const Poly& f, Angle alpha, Angle extra, uint32_t literals) {
+    /// The term e^{i alpha f} with f = `f` ^ `negate` (kept as an interned key and a constant), to be
+    /// stored at `where` (an index of real_, or kSub | an index of subterms_), where its key is set
+    /// when its batch is interned.
+    Term make_term(uint32_t where, uint32_t op, uint32_t subset, const Poly& f, bool negate, Angle alpha,
+                   Extra extra, uint32_t literals) {
         Term t;
         t.op = op;
-        t.subset = subset;
-        t.constant = has_constant(f);
+        t.subset = uint8_t(subset);
+        const bool c = has_constant(f);
+        t.constant = c != negate;
         const std::span<const uint32_t> key(f.data(), f.size());
-        t.key = polys_.intern(t.constant ? key.subspan(1) : key);
+        queue_key(where, c ? key.subspan(1) : key);
         t.alpha = alpha;
         t.extra = extra;
-        t.literals = literals;
+        t.literals = uint16_t(literals);
         return t;
     }
 
-    void add_term(uint32_t op, const Poly& f, Angle alpha, Angle extra, uint32_t literals) {
-        real_.push_back(OpTerm{make_term(op, 0, f, alpha, extra, literals), 0, 0});
+    void add_term(uint32_t op, const Poly& f, bool negate, Angle alpha, Extra extra, uint32_t literals) {
+        real_.push_back(make_term(uint32_t(real_.size()), op, 0, f, negate, alpha, extra, literals));
+        stored();
+    }
+
+    /// Term keys wait in a small batch before they are interned: each key's index slot is prefetched
+    /// when it is queued, so the cache misses of a batch (about one per key once the table outgrows
+    /// the caches) overlap instead of following one another.
+    void queue_key(uint32_t where, std::span<const uint32_t> key) {
+        const uint64_t h = SequenceTable::hash(key);
+        polys_.prefetch(h);
+        pending_.push_back(PendingKey{where, uint32_t(pending_words_.size()), uint32_t(key.size()), h});
+        pending_words_.insert(pending_words_.end(), key.begin(), key.end());
+    }
+
+    /// After a term is stored: interns a full batch.
+    void stored() {
+        if (pending_.size() >= kKeyBatch) intern_pending();
+    }
+
+    void intern_pending() {
+        for (const PendingKey& p : pending_) {
+            const uint32_t id = polys_.intern({pending_words_.data() + p.off, p.len}, p.hash);
+            (p.where & kSub ? subterms_[p.where & ~kSub] : real_[p.where]).key = id;
+        }
+        pending_.clear();
+        pending_words_.clear();
     }
 
     void collect() {
@@ -228,7 +374,9 @@ private:
         vals_.resize(n);
         for (uint32_t w = 0; w < n; ++w) vals_[w] = Poly{var_monomial(w)};
         next_var_ = n;
+        real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
         for (uint32_t i = 0; i < c_.ops.size(); ++i) step(i, c_.ops[i]);
+        intern_pending();
     }
 
     void step(uint32_t i, const Op& op) {
@@ -242,14 +390,25 @@ private:
         }
         switch (op.kind) {
         case OpKind::X: {
-            Poly prod;
-            if (!product(op, prod)) {
-                fresh(op.target);
-                return;
+            // target ^= product; the new value is formed in scratch_ and swapped in, so the old
+            // value's storage is the next scratch (no allocation per op).
+            if (op.controls.size() == 1) {  // a CNOT: the product is the literal itself
+                const Lit l = op.controls[0];
+                if (literal_size(l) > s_.max_terms) {
+                    fresh(op.target);
+                    return;
+                }
+                poly_xor(vals_[op.target], vals_[l.wire()], scratch_);
+                if (!l.positive()) toggle_constant(scratch_);
+            } else {
+                if (!product(op, prod_)) {
+                    fresh(op.target);
+                    return;
+                }
+                poly_xor(vals_[op.target], prod_, scratch_);
             }
-            Poly v = poly_xor(vals_[op.target], prod);
-            if (v.size() > s_.max_terms) fresh(op.target);
-            else vals_[op.target] = std::move(v);
+            if (scratch_.size() > s_.max_terms) fresh(op.target);
+            else vals_[op.target].swap(scratch_);
             return;
         }
         case OpKind::Swap:
@@ -261,10 +420,16 @@ private:
             return;
         case OpKind::Phase: {
             if (op.pair != 0) return;
-            Poly prod;
-            if (!product(op, prod)) return;  // too big to compare: not a term
             const uint32_t k = uint32_t(op.controls.size());
-            add_term(i, prod, op.angles[0], Angle(), k);
+            if (k > 0xffff) return;  // not a term (its cost 2^k - 1 would not fit either)
+            if (k == 1) {  // the literal itself, read in place
+                const Lit l = op.controls[0];
+                if (literal_size(l) > s_.max_terms) return;
+                add_term(i, vals_[l.wire()], !l.positive(), op.angles[0], kNoExtra, 1);
+                return;
+            }
+            if (!product(op, prod_)) return;  // too big to compare: not a term
+            add_term(i, prod_, false, op.angles[0], kNoExtra, k);
             // Expand only when the parity terms stay Clifford+T (angle / 2^{k-1} a multiple of pi/4:
             // CS, CZ, CCZ): finer parities would need rotation synthesis where the product lowers
             // exactly through Toffolis.
@@ -277,13 +442,13 @@ private:
             if (op.pair != 0) return;
             Poly sum;
             for (Lit l : op.controls) sum = poly_xor(sum, vals_[l.wire()]);
-            add_term(i, sum, op.angles[0], Angle(), 1);
+            add_term(i, sum, false, op.angles[0], kNoExtra, 1);
             return;
         }
         case OpKind::RZ:
             if (op.pair != 0 || !op.controls.empty()) return;
             // RZ(t) = e^{-it/2} Phase(t) with the stored angle t.
-            add_term(i, vals_[op.target], op.angles[0], -op.angles[0].divided_by(2), 1);
+            add_term(i, vals_[op.target], false, op.angles[0], kMinusHalf, 1);
             return;
         case OpKind::H:
         case OpKind::Y:
@@ -310,9 +475,7 @@ private:
     void expand(uint32_t i, const Op& op) {
         const uint32_t k = uint32_t(op.controls.size());
         const Angle base = op.angles[0].divided_by(int64_t(1) << (k - 1));
-        OpTerm& owner = real_.back();
-        owner.sub_first = uint32_t(subterms_.size());
-        owner.sub_count = (1u << k) - 1;
+        real_.back().sub_first = uint32_t(subterms_.size());
         for (uint32_t mask = 1; mask < (1u << k); ++mask) {
             Poly sum;
             int size = 0, negs = 0;
@@ -322,27 +485,29 @@ private:
                     ++size;
                     if (!op.controls[b].positive()) ++negs;
                 }
-            Angle phi = size % 2 == 1 ? base : -base;
-            Angle extra;
-            if (negs % 2 == 1) {  // e^{i phi (1 ^ P)} = e^{i phi} e^{-i phi P}
-                extra = phi;
-                phi = -phi;
-            }
-            subterms_.push_back(make_term(i, mask, sum, phi, extra, 1));
+            const Angle phi = size % 2 == 1 ? base : -base;
+            // e^{i phi (1 ^ P)} = e^{i phi} e^{-i phi P}: angle -phi, constant part phi (exact, so
+            // -(-phi) gives phi back)
+            const uint32_t where = kSub | uint32_t(subterms_.size());
+            if (negs % 2 == 1) subterms_.push_back(make_term(where, i, mask, sum, false, -phi, kMinus, 1));
+            else subterms_.push_back(make_term(where, i, mask, sum, false, phi, kNoExtra, 1));
+            stored();
         }
     }
 
-    std::span<const Term> subterms_of(const OpTerm& t) const {
-        return {subterms_.data() + t.sub_first, t.sub_count};
+    std::span<const Term> subterms_of(const Term& t) const {
+        if (t.sub_first == kNone) return {};
+        return {subterms_.data() + t.sub_first, t.sub_count()};
     }
 
     /// Expands the products some of whose parities occur elsewhere (another term, or another
     /// product's expansion).
     Plan expansion_plan() {
+        expanded_ = 0;
         std::vector<uint32_t> sources(polys_.size(), 0);
-        for (const OpTerm& t : real_) {
-            if (t.sub_count == 0) {
-                ++sources[t.term.key];
+        for (const Term& t : real_) {
+            if (t.sub_first == kNone) {
+                ++sources[t.key];
                 continue;
             }
             const std::span<const Term> subs = subterms_of(t);
@@ -353,18 +518,43 @@ private:
             }
         }
         Plan p;
-        for (const OpTerm& t : real_) {
+        p.own.reserve(real_.size());
+        for (const Term& t : real_) {
             bool useful = false;
             for (const Term& s : subterms_of(t)) useful = useful || sources[s.key] >= 2;
             if (!useful) {
-                p.terms.push_back(t.term);
+                p.own.push_back(t);
                 continue;
             }
             ++expanded_;
-            for (const Term& s : subterms_of(t)) p.terms.push_back(s);
+            for (const Term& s : subterms_of(t)) p.own.push_back(s);
         }
+        p.terms = p.own;
         p.build(polys_.size());
         return p;
+    }
+
+    /// emit() for an op that carries exactly one term of the plan.
+    template <class Put>
+    static void rewrite_in_place(const Plan& plan, size_t index, Op& op, Angle& global, int64_t& removed, Put& put) {
+        const Term& t = plan.terms[index];
+        const Group& g = plan.groups[plan.group_of[index]];
+        if (g.size == 1 && t.subset == 0) {  // alone and not expanded: as it was
+            put(std::move(op));
+            return;
+        }
+        global += t.global_part();
+        const Angle a = t.constant ? -g.total : g.total;
+        if (g.first != index || a.is_zero()) {  // merged into the first, or the group sums to 0
+            if (g.first == index && t.constant) global += g.total;
+            ++removed;
+            return;
+        }
+        WHITTLE_ASSERT(t.subset == 0 && "a one-term op is the term of the op itself");
+        if (t.constant) global += g.total;
+        op.angles[0] = a;
+        if (op.kind == OpKind::RZ) global += a.divided_by(2);  // Phase(a) = e^{ia/2} RZ(a)
+        put(std::move(op));
     }
 
     /// Re-emits the ops with the plan's terms. Without expansion every op gives at most one op, so the
@@ -387,6 +577,10 @@ private:
         for (uint32_t i = 0; i < n; ++i) {
             if (next >= plan.terms.size() || plan.terms[next].op != i) {
                 put(std::move(c_.ops[i]));
+                continue;
+            }
+            if (next + 1 == plan.terms.size() || plan.terms[next + 1].op != i) {  // one term: no copy
+                rewrite_in_place(plan, next++, c_.ops[i], global, removed, put);
                 continue;
             }
             const Op op = c_.ops[i];  // a copy: in place, position i may be overwritten below
@@ -436,10 +630,13 @@ private:
     SequenceTable monomials_;  ///< monomial id -> sorted variables (id 0: the constant 1)
     SequenceTable polys_;      ///< term key id -> sorted monomial ids
     std::vector<Poly> vals_;   ///< each wire's current value
+    Poly scratch_, prod_;      ///< step()'s scratch values (kept to reuse their storage)
     uint32_t next_var_ = 0;
-    std::vector<OpTerm> real_;     ///< the terms of the circuit, in op order
+    std::vector<Term> real_;       ///< the terms of the circuit, in op order
     std::vector<Term> subterms_;   ///< parity expansions of the expandable AND terms
     int64_t expanded_ = 0;
+    Plan last_plain_;             ///< the plan run() emitted, when it expanded nothing
+    bool last_expanded_ = false;
     /// Scratch of times(): the monomial products of one polynomial product, back to back.
     struct Product {
         uint64_t hash;
@@ -450,12 +647,32 @@ private:
     std::vector<Product> products_;
     std::vector<uint32_t> slot_stamp_, slot_product_;  ///< the pairing table; a slot is used when its stamp is stamp_
     uint32_t stamp_ = 0;
+    std::vector<uint32_t> var_mark_;  ///< surviving_lower_bound's marks per variable
+    std::vector<uint32_t> var_monomial_;  ///< variable -> its one-variable monomial
+    static constexpr size_t kKeyBatch = 32;
+    static constexpr uint32_t kSub = 0x80000000u;  ///< PendingKey::where of a subterm
+    struct PendingKey {
+        uint32_t where;  ///< index into real_, or kSub | index into subterms_
+        uint32_t off, len;
+        uint64_t hash;
+    };
+    std::vector<PendingKey> pending_;
+    std::vector<uint32_t> pending_words_;
+    uint32_t mark_ = 0;
 };
 
 }  // namespace
 
 bool fold_phase_terms(ir::Circuit& c, const FoldSettings& settings, PassResult& result) {
-    return Folder(c, settings).run(result);
+    WHITTLE_ASSERT(settings.max_expand_literals <= 8 && "a term's subset is a byte");
+    bool changed = false;
+    for (size_t round = 0; round < settings.rounds; ++round) {
+        Folder folder(c, settings);
+        if (!folder.run(result)) break;
+        changed = true;
+        if (round + 1 < settings.rounds && !folder.next_round_changes()) break;
+    }
+    return changed;
 }
 
 }  // namespace whittle::passes

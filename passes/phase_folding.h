@@ -12,10 +12,13 @@ struct FoldSettings {
     /// Expand AND terms (Phase on k >= 2 literals) into parity terms when the expansion lowers the
     /// cost (see fold_phase_terms). Off at the low level, where no Parity ops may appear.
     bool expand_products = false;
-    /// Largest product expanded (2^k - 1 parity terms).
+    /// Largest product expanded (2^k - 1 parity terms); at most 8.
     size_t max_expand_literals = 3;
     /// A wire whose polynomial would exceed this many monomials gets a fresh variable instead.
     size_t max_terms = 64;
+    /// Rounds at most: an expansion can make parities that expose further merges and expansions.
+    /// A round stops the loop when it changes nothing or when the next one provably would not.
+    size_t rounds = 1;
 };
 
 /// Phase folding (Amy, Maslov, Mosca 2014, arXiv:1303.2042; on the lowered circuit the rotation
@@ -36,8 +39,8 @@ struct FoldSettings {
 /// Only products whose parity angles t / 2^{k-1} are multiples of pi/4 are expanded (CS, CZ, CCZ
 /// and their multiples): finer parities would need rotation synthesis where the product itself
 /// lowers exactly through Toffolis.
-/// Linear in the circuit size for fixed caps. Returns false, leaving the circuit untouched, when
-/// no two terms merge.
+/// Linear in the circuit size for fixed caps and rounds. Returns false, leaving the circuit
+/// untouched, when no two terms merge.
 bool fold_phase_terms(ir::Circuit& c, const FoldSettings& settings, PassResult& result);
 
 }  // namespace whittle::passes

@@ -1,6 +1,7 @@
 // fold-phases: phase folding identities (Amy, Maslov, Mosca 2014, arXiv:1303.2042) and random circuits.
 #include <doctest/doctest.h>
 
+#include "ir/printer.h"
 #include "passes/fold_phases.h"
 #include "passes/normalize.h"
 #include "passes/phase_folding.h"
@@ -138,6 +139,21 @@ TEST_CASE("fold-phases on random circuits (state vector, global phase included)"
     CHECK(check_pass_on_random(passes::fold_phases, 300, 51) > 50);
 }
 
+TEST_CASE("fold-phases on longer random circuits: many terms, their keys interned in several batches") {
+    std::mt19937_64 rng(54);
+    RandomSpec spec;
+    spec.min_ops = 150;
+    spec.max_ops = 300;
+    for (int i = 0; i < 40; ++i) {
+        Circuit c = random_circuit(rng, spec);
+        passes::normalize(c, {});
+        Circuit before = c;
+        passes::fold_phases(c, {});
+        verify(c);
+        CHECK((circuit_unitary(before) - circuit_unitary(c)).norm() < 1e-9);
+    }
+}
+
 TEST_CASE("fold-phases never raises the non-Clifford term count; random Clifford+T never get more T; idempotent") {
     std::mt19937_64 rng(52);
     RandomSpec ct;
@@ -153,4 +169,25 @@ TEST_CASE("fold-phases never raises the non-Clifford term count; random Clifford
         Circuit again = c;
         CHECK_FALSE(passes::fold_phases(again, {}).changed);
     }
+}
+
+TEST_CASE("the engine stops its rounds early only when another round would change nothing") {
+    // Reference: rounds run one at a time, each reading the circuit again, until one changes nothing
+    // (at most 4, as fold-phases). The engine's prediction of the next round must give the same circuit.
+    std::mt19937_64 rng(53);
+    int several_rounds = 0;
+    for (int i = 0; i < 400; ++i) {
+        Circuit c = random_circuit(rng);
+        passes::normalize(c, {});
+        Circuit reference = c;
+        passes::FoldSettings one;
+        one.expand_products = true;
+        int rounds = 0;
+        for (passes::PassResult r; rounds < 4 && passes::fold_phase_terms(reference, one, r);) ++rounds;
+        several_rounds += rounds >= 2;
+        passes::fold_phases(c, {});
+        CHECK(print_wq(c) == print_wq(reference));
+        CHECK(c.global_phase == reference.global_phase);
+    }
+    CHECK(several_rounds > 0);
 }

@@ -50,3 +50,43 @@ TEST_CASE("random sequences: ids agree with a std::map over many index growths")
     CHECK(t.size() == reference.size());
     for (const auto& [s, id] : reference) CHECK(std::vector<uint32_t>(t[id].begin(), t[id].end()) == s);
 }
+
+TEST_CASE("unindexed sequences get ids in the same order and read back, and interning is unaffected") {
+    SequenceTable t;
+    std::map<std::vector<uint32_t>, uint32_t> interned{{{}, 0}};
+    std::vector<std::vector<uint32_t>> by_id{{}};
+    std::mt19937_64 rng(9);
+    std::uniform_int_distribution<uint32_t> len(2, 5), val(0, 30);
+    for (uint32_t i = 0; i < 30000; ++i) {
+        if (i % 3 == 0) {  // a one-element sequence the caller maps itself, as the folding engine's variables
+            const uint32_t one[1] = {i};
+            REQUIRE(t.add_unindexed(one) == by_id.size());
+            by_id.push_back({i});
+            continue;
+        }
+        std::vector<uint32_t> s(len(rng));
+        for (uint32_t& v : s) v = val(rng);
+        const uint32_t got = t.intern(s);
+        auto [it, fresh] = interned.emplace(s, uint32_t(by_id.size()));
+        REQUIRE(got == it->second);
+        if (fresh) by_id.push_back(s);
+    }
+    REQUIRE(t.size() == by_id.size());
+    for (uint32_t id = 0; id < t.size(); ++id) CHECK(std::vector<uint32_t>(t[id].begin(), t[id].end()) == by_id[id]);
+}
+
+TEST_CASE("sequences longer than a storage chunk, and many that fill several chunks, read back") {
+    SequenceTable t;
+    std::vector<uint32_t> big(3u << 20);  // 3 Mi words: more than one 1 Mi-word chunk
+    for (uint32_t i = 0; i < big.size(); ++i) big[i] = i * 7u;
+    std::vector<uint32_t> small{1, 2, 3};
+    const uint32_t a = t.intern(small);
+    const uint32_t b = t.intern(big);
+    std::vector<uint32_t> ids;
+    for (uint32_t i = 0; i < 400000; ++i) ids.push_back(t.intern(std::vector<uint32_t>{i, i + 1, i + 2}));  // 1.6 Mi words
+    CHECK(t.intern(big) == b);
+    CHECK(t.intern(small) == a);
+    CHECK(std::vector<uint32_t>(t[b].begin(), t[b].end()) == big);
+    for (uint32_t i = 0; i < 400000; i += 997) CHECK(std::vector<uint32_t>(t[ids[i]].begin(), t[ids[i]].end()) == std::vector<uint32_t>{i, i + 1, i + 2});
+    CHECK(ids[1] == a);  // {1, 2, 3} was interned before
+}
