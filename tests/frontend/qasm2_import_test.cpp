@@ -316,6 +316,28 @@ TEST_CASE("an included file is read from the including file's folder") {
     fs::remove_all(dir);
 }
 
+TEST_CASE("more source files than a location can name is a located error, not a wrapped file index") {
+    // SourceLoc keeps a 16-bit file index (ir/source_loc.h); the main file is index 0.
+    namespace fs = std::filesystem;
+    fs::path dir = fs::temp_directory_path() / fmt::format("whittle_qasm_many_inc_{}", ::getpid());
+    fs::create_directories(dir);
+    std::ofstream(dir / "empty.inc") << "// nothing\n";
+    {
+        std::ofstream main(dir / "main.qasm");
+        main << "OPENQASM 2.0;\n";
+        for (uint32_t i = 0; i < ir::kMaxSourceFiles; ++i) main << "include \"empty.inc\";\n";
+    }
+    frontend::SourceManager sm;
+    try {
+        frontend::load_file((dir / "main.qasm").string(), sm);
+        FAIL("no error");
+    } catch (const UserError& e) {
+        CHECK(std::string(e.what()).find("more than 65536 source files") != std::string::npos);
+        CHECK(uint32_t(e.loc().line) == 1 + ir::kMaxSourceFiles);  // the include that would be file 65536
+    }
+    fs::remove_all(dir);
+}
+
 TEST_CASE("bad inputs give located errors") {
     // Each case: the input, then "line:col: part of the message".
     const std::pair<std::string, std::string> cases[] = {
