@@ -587,9 +587,7 @@ private:
     /// Gives an op of the current statement its location and condition.
     void stamp(ir::Op& op) const {
         op.loc = stmt_loc_;
-        if (cond_reg_ >= 0) {
-            op.set_condition(cond_reg_, cond_value_);
-        }
+        if (cond_reg_ >= 0) op.set_condition(cond_reg_, cond_value_);
     }
 
     void push(ir::Op op) {
