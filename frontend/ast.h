@@ -126,7 +126,8 @@ struct File {
     std::vector<Routine> routines;
     std::vector<std::string> strings;
 
-    ir::SourceLoc loc(uint32_t line, uint32_t col) const { return ir::SourceLoc{file_id, line, col}; }
+    /// (SourceManager::add keeps ids below ir::kMaxSourceFiles, so the id fits SourceLoc's 16 bits.)
+    ir::SourceLoc loc(uint32_t line, uint32_t col) const { return ir::SourceLoc{uint16_t(file_id), line, col}; }
     ir::SourceLoc loc_of(const Expr& e) const { return loc(e.line, e.col); }
     ir::SourceLoc loc_of(const Stmt& s) const { return loc(s.line, s.col); }
 };

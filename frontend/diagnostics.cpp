@@ -5,7 +5,9 @@
 
 namespace whittle::frontend {
 
-uint32_t SourceManager::add(std::string name, std::string text) {
+uint32_t SourceManager::add(std::string name, std::string text, const ir::SourceLoc& requested_at) {
+    if (files_.size() >= ir::kMaxSourceFiles)
+        throw UserError(fmt::format("more than {} source files (each include reads one)", ir::kMaxSourceFiles), requested_at);
     files_.push_back(File{std::move(name), std::move(text)});
     return uint32_t(files_.size() - 1);
 }

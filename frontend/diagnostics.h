@@ -16,7 +16,8 @@ namespace whittle::frontend {
 class SourceManager {
 public:
     /// Registers a file's text and returns its id (the SourceLoc::file of locations inside it).
-    uint32_t add(std::string name, std::string text);
+    /// Throws UserError at `requested_at` (the include or `use`) past ir::kMaxSourceFiles files.
+    uint32_t add(std::string name, std::string text, const ir::SourceLoc& requested_at = {});
     const std::string& name(uint32_t id) const { return files_.at(id).name; }
     const std::string& text(uint32_t id) const { return files_.at(id).text; }
     size_t size() const { return files_.size(); }

@@ -67,8 +67,7 @@ void Elaborator::emit(Op op, ir::SourceLoc loc) {
     if (c_.ops.size() >= limits_.max_ops)
         throw UserError(fmt::format("the program elaborates to more than {} ops (the op limit)", limits_.max_ops), loc);
     op.loc = loc;
-    op.cond_reg = ctx_.cond_reg;
-    op.cond_value = ctx_.cond_value;
+    op.set_condition(ctx_.cond_reg, ctx_.cond_value);
     c_.ops.push_back(std::move(op));
 }
 
@@ -278,15 +277,15 @@ void Elaborator::exec_gate(const File& f, const Stmt& s) {
             case Gate::RZ: ops.push_back(controlled(OpKind::RZ, w)); break;
             case Gate::U: {
                 Op op = controlled(OpKind::U, w);
-                op.angles[1] = a[1];
-                op.angles[2] = a[2];
+                op.set_phi(a[1]);
+                op.set_lambda(a[2]);
                 ops.push_back(op);
                 break;
             }
             case Gate::R: {
                 check_not_controlled(loc, "'r'");
                 Op op = Op::one(OpKind::R, w, a[0]);
-                op.angles[1] = a[1];
+                op.set_phi(a[1]);
                 ops.push_back(op);
                 break;
             }

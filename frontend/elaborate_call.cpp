@@ -208,7 +208,7 @@ void Elaborator::exec_use(const File& f, const Stmt& s) {
     if (use_stack_.size() >= limits_.max_use_depth)
         throw UserError(fmt::format("'use' nested deeper than the limit of {}", limits_.max_use_depth), loc);
     std::string text = read_file(found, limits_.max_file_bytes, loc);
-    uint32_t id = sm_.add(found.string(), std::move(text));
+    uint32_t id = sm_.add(found.string(), std::move(text), loc);
     loaded_[canon] = id;
     use_stack_.push_back(canon);
     const File& used = load(id);

@@ -10,7 +10,7 @@ struct Limits {
     uint32_t max_recursion = 256;            ///< nesting of routine calls (the arithmetic library nests once per bit)
     uint32_t max_use_depth = 64;             ///< nesting of `use`
     uint32_t max_qubits = 1'000'000;         ///< wires in one circuit
-    uint64_t max_ops = 10'000'000;           ///< ops after elaboration (~160 bytes each), and elaboration steps
+    uint64_t max_ops = 10'000'000;           ///< ops after elaboration (64 bytes each), and elaboration steps
     uint32_t max_expr_depth = 10'000;        ///< nesting of one expression
     uint32_t max_block_depth = 1'000;        ///< nesting of `{ }` blocks
     uint32_t max_expansion_terms = 65'536;   ///< terms of one Boolean expression's exact expansion

@@ -150,7 +150,7 @@ private:
                 auto it = gates_.find(std::string_view(g.name));
                 if (!g.builtin && it != gates_.end())
                     throw UserError(fmt::format("qelib1.inc defines '{}', which is already defined at {}:{}", g.name,
-                                                it->second.loc.line, it->second.loc.column),
+                                                uint32_t(it->second.loc.line), uint32_t(it->second.loc.column)),
                                     name.loc);
             }
             qelib1_ = true;
@@ -175,7 +175,7 @@ private:
                 throw UserError(fmt::format("included file '{}' is over the limit of {} bytes", name.text,
                                             opts_.limits.max_file_bytes),
                                 name.loc);
-            uint32_t id = sm_.add(p.string(), ss.str());
+            uint32_t id = sm_.add(p.string(), ss.str(), name.loc);
             include_stack_.push_back(canon);
             parse_file(id, false);
             include_stack_.pop_back();
@@ -587,10 +587,7 @@ private:
     /// Gives an op of the current statement its location and condition.
     void stamp(ir::Op& op) const {
         op.loc = stmt_loc_;
-        if (cond_reg_ >= 0) {
-            op.cond_reg = cond_reg_;
-            op.cond_value = cond_value_;
-        }
+        if (cond_reg_ >= 0) op.set_condition(cond_reg_, cond_value_);
     }
 
     void push(ir::Op op) {

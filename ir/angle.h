@@ -42,13 +42,15 @@ public:
     /// Exact angles compare exactly; inexact ones within 1e-12 (mod 2*pi).
     bool operator==(const Angle& o) const;
     bool operator!=(const Angle& o) const { return !(*this == o); }
+    /// Same representation, bit for bit (operator== lets inexact angles differ by 1e-12).
+    bool identical(const Angle& o) const { return num_ == o.num_ && den_ == o.den_; }
 
     /// Text form that the .wq parser reads back to the same angle: "0", "pi", "3*pi/4", "-pi/8",
     /// or a decimal with 17 significant digits for inexact angles. Exact angles print in (-pi, pi].
     std::string to_string() const;
 
 private:
-    // 16 bytes (an ir::Op holds three): an inexact angle keeps its radians' bits in num_'s place.
+    // 16 bytes (an ir::Op holds one inline): an inexact angle keeps its radians' bits in num_'s place.
     double rad() const { return std::bit_cast<double>(num_); }
     void set_rad(double r) { num_ = std::bit_cast<int64_t>(r); }
 

@@ -54,7 +54,7 @@ Op Op::x(uint32_t target, LitVec controls) {
 Op Op::phase(Angle a, LitVec product) {
     Op op;
     op.kind = OpKind::Phase;
-    op.angles[0] = a;
+    op.angle = a;
     op.controls = std::move(product);
     return op;
 }
@@ -62,7 +62,7 @@ Op Op::phase(Angle a, LitVec product) {
 Op Op::parity(Angle a, const std::vector<uint32_t>& wires) {
     Op op;
     op.kind = OpKind::Parity;
-    op.angles[0] = a;
+    op.angle = a;
     for (uint32_t w : wires) op.controls.push_back(Lit::pos(w));
     return op;
 }
@@ -71,7 +71,7 @@ Op Op::one(OpKind k, uint32_t target, Angle a, LitVec controls) {
     Op op;
     op.kind = k;
     op.target = target;
-    op.angles[0] = a;
+    op.angle = a;
     op.controls = std::move(controls);
     return op;
 }
@@ -80,9 +80,9 @@ Op Op::u(uint32_t target, Angle theta, Angle phi, Angle lambda) {
     Op op;
     op.kind = OpKind::U;
     op.target = target;
-    op.angles[0] = theta;
-    op.angles[1] = phi;
-    op.angles[2] = lambda;
+    op.angle = theta;
+    op.set_phi(phi);
+    op.set_lambda(lambda);
     return op;
 }
 
@@ -100,7 +100,7 @@ Op Op::two(OpKind k, uint32_t a, uint32_t b, Angle angle) {
     op.kind = k;
     op.target = a;
     op.target2 = b;
-    op.angles[0] = angle;
+    op.angle = angle;
     return op;
 }
 
@@ -108,7 +108,7 @@ Op Op::measure(uint32_t target, int32_t cbit) {
     Op op;
     op.kind = OpKind::Measure;
     op.target = target;
-    op.cbit = cbit;
+    op.set_cbit(cbit);
     return op;
 }
 
@@ -220,11 +220,10 @@ namespace {
 /// is minus the true inverse for every theta != 0. Under controls that sign is a phase of pi on the
 /// controls, pushed here; without controls it is a global phase and is dropped.
 void push_half_period_sign(const Op& op, std::vector<Op>& out) {
-    if (op.controls.empty() || op.angles[0].is_zero()) return;
+    if (op.controls.empty() || op.angle.is_zero()) return;
     Op sign = Op::phase(Angle::pi_times(1), op.controls);
     sign.loc = op.loc;
-    sign.cond_reg = op.cond_reg;
-    sign.cond_value = op.cond_value;
+    sign.copy_condition(op);
     sign.pair = op.pair;
     sign.half = op.half == PairHalf::Compute ? PairHalf::Uncompute : op.half == PairHalf::Uncompute ? PairHalf::Compute : PairHalf::None;
     out.push_back(sign);
@@ -246,14 +245,14 @@ void append_inverse(const Op& op, std::vector<Op>& out) {
         return;
     case OpKind::Phase:
     case OpKind::Parity:
-        inv.angles[0] = -op.angles[0];
+        inv.angle = -op.angle;
         out.push_back(inv);
         return;
     case OpKind::RX:
     case OpKind::RY:
     case OpKind::RZ:
     case OpKind::XX:
-        inv.angles[0] = -op.angles[0];
+        inv.angle = -op.angle;
         out.push_back(inv);
         push_half_period_sign(op, out);
         return;
@@ -266,14 +265,14 @@ void append_inverse(const Op& op, std::vector<Op>& out) {
         out.push_back(inv);
         return;
     case OpKind::U:
-        inv.angles[0] = -op.angles[0];
-        inv.angles[1] = -op.angles[2];
-        inv.angles[2] = -op.angles[1];
+        inv.angle = -op.angle;
+        inv.set_phi(-op.lambda());
+        inv.set_lambda(-op.phi());
         out.push_back(inv);
         push_half_period_sign(op, out);
         return;
     case OpKind::R:
-        inv.angles[0] = -op.angles[0];
+        inv.angle = -op.angle;
         out.push_back(inv);
         push_half_period_sign(op, out);
         return;
@@ -281,8 +280,7 @@ void append_inverse(const Op& op, std::vector<Op>& out) {
         // iSWAP^dagger = (Z(x)I) iSWAP (Z(x)I): Z(x)I anticommutes with XX and YY (Z(x)Z would commute).
         Op z1 = Op::phase(Angle::pi_times(1), {Lit::pos(op.target)});
         z1.loc = op.loc;
-        z1.cond_reg = op.cond_reg;
-        z1.cond_value = op.cond_value;
+        z1.copy_condition(op);
         out.push_back(z1);
         out.push_back(inv);
         out.push_back(z1);
@@ -331,9 +329,9 @@ void verify(const Circuit& c) {
         if (no_controls && !op.controls.empty()) bad(c, i, fmt::format("'{}' cannot have controls", op_kind_name(op.kind)));
         if ((op.kind == OpKind::Phase || op.kind == OpKind::Parity) && op.controls.empty())
             bad(c, i, "phase without wires (use Circuit::global_phase)");
-        if (op.kind == OpKind::Measure && (op.cbit < 0 || uint32_t(op.cbit) >= c.num_cbits))
+        if (op.kind == OpKind::Measure && (op.cbit() < 0 || uint32_t(op.cbit()) >= c.num_cbits))
             bad(c, i, "measurement bit out of range");
-        if (op.cond_reg >= 0 && size_t(op.cond_reg) >= c.cregs.size()) bad(c, i, "condition register out of range");
+        if (op.cond_reg() >= 0 && size_t(op.cond_reg()) >= c.cregs.size()) bad(c, i, "condition register out of range");
         if (op.half != PairHalf::None && op.pair == 0) bad(c, i, "pair half without a pair id");
     }
 }

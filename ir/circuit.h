@@ -2,13 +2,14 @@
 #pragma once
 
 #include <cstdint>
+#include <memory>
 #include <string>
 #include <string_view>
+#include <type_traits>
 #include <vector>
 
-#include <boost/container/small_vector.hpp>
-
 #include "ir/angle.h"
+#include "ir/lit_vec.h"
 #include "ir/source_loc.h"
 
 namespace whittle::ir {
@@ -43,28 +44,6 @@ struct ClassicalRegister {
     bool scalar = false;
 };
 
-/// A control literal: a wire and a polarity (negative = the op acts when the wire is |0>).
-class Lit {
-public:
-    constexpr Lit() = default;
-    static constexpr Lit pos(uint32_t wire) { return Lit(wire << 1); }
-    static constexpr Lit neg(uint32_t wire) { return Lit((wire << 1) | 1u); }
-    static constexpr Lit make(uint32_t wire, bool positive) { return positive ? pos(wire) : neg(wire); }
-    constexpr uint32_t wire() const { return bits_ >> 1; }
-    constexpr bool positive() const { return (bits_ & 1u) == 0; }
-    constexpr Lit flipped() const { return Lit(bits_ ^ 1u); }
-    constexpr uint32_t bits() const { return bits_; }
-    friend constexpr bool operator==(Lit a, Lit b) { return a.bits_ == b.bits_; }
-    friend constexpr bool operator!=(Lit a, Lit b) { return a.bits_ != b.bits_; }
-    friend constexpr bool operator<(Lit a, Lit b) { return a.bits_ < b.bits_; }
-
-private:
-    constexpr explicit Lit(uint32_t b) : bits_(b) {}
-    uint32_t bits_ = 0;
-};
-
-using LitVec = boost::container::small_vector<Lit, 3>;
-
 enum class OpKind : uint8_t {
     X,        ///< target ^= AND(controls): X, CNOT, Toffoli, multi-controlled X
     Phase,    ///< e^{i*angle*AND(controls)}: Z, S, T, CZ, CCZ, ...; no target, `controls` is the product
@@ -93,22 +72,79 @@ enum class PairHalf : uint8_t { None, Compute, Uncompute };
 
 constexpr uint32_t kNoWire = 0xffffffffu;
 
-/// Fields ordered so that no padding sits between them (the op vector dominates memory at scale).
+/// The parts of an op that few ops use, kept out of line so that ir::Op stays at 64 bytes: the
+/// second and third angles (U and R only), the classical condition, and a measurement's bit.
+struct OpRareFields {
+    Angle phi;                ///< U phi, R phi
+    Angle lambda;             ///< U lambda
+    uint64_t cond_value = 0;  ///< see Op::cond_value
+    int32_t cond_reg = -1;    ///< see Op::cond_reg
+    int32_t cbit = -1;        ///< see Op::cbit
+};
+
+/// An owned OpRareFields that is copied with the op; empty (null) until a field is set to a value
+/// other than its default, so that most ops carry no heap block.
+class OpRareBox {
+public:
+    OpRareBox() noexcept = default;
+    OpRareBox(const OpRareBox& o) : p_(o.p_ ? std::make_unique<OpRareFields>(*o.p_) : nullptr) {}
+    OpRareBox(OpRareBox&&) noexcept = default;
+    OpRareBox& operator=(const OpRareBox& o) {
+        if (this != &o) p_ = o.p_ ? std::make_unique<OpRareFields>(*o.p_) : nullptr;
+        return *this;
+    }
+    OpRareBox& operator=(OpRareBox&&) noexcept = default;
+
+    const OpRareFields* get() const noexcept { return p_.get(); }
+    OpRareFields& make() {
+        if (!p_) p_ = std::make_unique<OpRareFields>();
+        return *p_;
+    }
+
+private:
+    std::unique_ptr<OpRareFields> p_;
+};
+
+/// One operation. Fields are ordered without padding and the rare ones live in `rare_` (the op
+/// vector is most of the memory at 10^7 ops; sizeof(Op) is checked below).
 struct Op {
     OpKind kind = OpKind::X;
     PairHalf half = PairHalf::None;
+    SourceLoc loc;               ///< 10 bytes (packed), so kind, half and loc fill 12
     uint32_t target = kNoWire;
     uint32_t target2 = kNoWire;  ///< Swap, ISwap, XX
     uint32_t pair = 0;           ///< compute/uncompute pair id (0 = none)
-    /// angles[0]: Phase/Parity/RX/RY/RZ/XX angle, U theta, R theta; angles[1]: U phi, R phi; angles[2]: U lambda.
-    Angle angles[3];
+    /// Phase/Parity/RX/RY/RZ/XX angle, U theta, R theta (U phi and lambda, R phi: phi(), lambda()).
+    Angle angle;
     LitVec controls;             ///< control literals (sorted by wire after normalize); see OpKind for Parity/Barrier
-    int32_t cbit = -1;           ///< Measure: the classical bit written
-    int32_t cond_reg = -1;       ///< classically conditioned: index of the classical register (-1 = unconditioned)
-    uint64_t cond_value = 0;     ///< the op runs when that register's value equals cond_value
-    SourceLoc loc;
 
-    const Angle& angle() const { return angles[0]; }
+    /// U phi, R phi (0 for other kinds unless set).
+    Angle phi() const { return rare_.get() ? rare_.get()->phi : Angle(); }
+    /// U lambda.
+    Angle lambda() const { return rare_.get() ? rare_.get()->lambda : Angle(); }
+    void set_phi(Angle a) {
+        if (rare_.get() || !a.identical(Angle())) rare_.make().phi = a;
+    }
+    void set_lambda(Angle a) {
+        if (rare_.get() || !a.identical(Angle())) rare_.make().lambda = a;
+    }
+    /// Measure: the classical bit written (-1 otherwise).
+    int32_t cbit() const { return rare_.get() ? rare_.get()->cbit : -1; }
+    void set_cbit(int32_t bit) {
+        if (rare_.get() || bit != -1) rare_.make().cbit = bit;
+    }
+    /// Classically conditioned: index of the classical register (-1 = unconditioned).
+    int32_t cond_reg() const { return rare_.get() ? rare_.get()->cond_reg : -1; }
+    /// The op runs when that register's value equals cond_value.
+    uint64_t cond_value() const { return rare_.get() ? rare_.get()->cond_value : 0; }
+    void set_condition(int32_t reg, uint64_t value) {
+        if (!rare_.get() && reg == -1 && value == 0) return;
+        OpRareFields& r = rare_.make();
+        r.cond_reg = reg;
+        r.cond_value = value;
+    }
+    /// Takes `o`'s classical condition (or its absence).
+    void copy_condition(const Op& o) { set_condition(o.cond_reg(), o.cond_value()); }
 
     static Op x(uint32_t target, LitVec controls = {});
     static Op phase(Angle a, LitVec product);
@@ -120,7 +156,7 @@ struct Op {
     static Op measure(uint32_t target, int32_t cbit);
     static Op reset(uint32_t target);
 
-    bool is_conditioned() const { return cond_reg >= 0; }
+    bool is_conditioned() const { return cond_reg() >= 0; }
     /// Diagonal in the computational basis (Phase, Parity, RZ, and controlled versions of those).
     bool is_diagonal() const;
     /// Permutation of basis states (X-type: X/CNOT/Toffoli/MCX and swaps, unconditioned).
@@ -128,7 +164,14 @@ struct Op {
     /// Every wire the op touches (target(s), controls, parity or barrier wires), in no set order.
     void wires(std::vector<uint32_t>& out) const;
     std::vector<uint32_t> wires() const;
+
+private:
+    OpRareBox rare_;
 };
+
+static_assert(sizeof(Op) == 64, "ir::Op: 64 bytes (kind, half, loc 12; targets and pair 12; angle 16; controls 16; rare 8)");
+static_assert(std::is_nothrow_move_constructible_v<Op> && std::is_nothrow_move_assignable_v<Op>,
+              "vector growth must move ops, not copy them");
 
 class Circuit {
 public:

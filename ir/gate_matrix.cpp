@@ -9,7 +9,7 @@ namespace whittle::ir {
 
 Mat2 one_qubit_matrix(const Op& op) {
     const Complex i(0, 1);
-    const double a = op.angles[0].to_radians();
+    const double a = op.angle.to_radians();
     Mat2 m;
     switch (op.kind) {
     case OpKind::X: m << 0, 1, 1, 0; return m;
@@ -27,13 +27,13 @@ Mat2 one_qubit_matrix(const Op& op) {
     case OpKind::Phase:
     case OpKind::Parity: m << 1, 0, 0, std::exp(i * a); return m;
     case OpKind::U: {
-        const double phi = op.angles[1].to_radians(), lam = op.angles[2].to_radians();
+        const double phi = op.phi().to_radians(), lam = op.lambda().to_radians();
         m << std::cos(a / 2), -std::exp(i * lam) * std::sin(a / 2), std::exp(i * phi) * std::sin(a / 2),
             std::exp(i * (phi + lam)) * std::cos(a / 2);
         return m;
     }
     case OpKind::R: {
-        const double phi = op.angles[1].to_radians();
+        const double phi = op.phi().to_radians();
         m << std::cos(a / 2), -i * std::exp(-i * phi) * std::sin(a / 2), -i * std::exp(i * phi) * std::sin(a / 2),
             std::cos(a / 2);
         return m;
@@ -61,7 +61,7 @@ Mat4 two_qubit_matrix(const Op& op) {
         m(1, 2) = m(2, 1) = i;
         return m;
     case OpKind::XX: {
-        const double a = op.angles[0].to_radians();
+        const double a = op.angle.to_radians();
         const Complex c = std::cos(a / 2), s = -i * std::sin(a / 2);
         m(0, 0) = m(1, 1) = m(2, 2) = m(3, 3) = c;
         m(0, 3) = m(3, 0) = m(1, 2) = m(2, 1) = s;

@@ -60,7 +60,7 @@ namespace {
 /// The op's statement without its condition, pair tag or `when` controls.
 std::string bare_op(const Circuit& c, const Op& op) {
     auto w = [&](uint32_t wire) { return wire_text(c, wire); };
-    const std::string a0 = stored_angle_text(op.angles[0]);
+    const std::string a0 = stored_angle_text(op.angle);
     switch (op.kind) {
     case OpKind::X: return fmt::format("x {}", w(op.target));
     case OpKind::H: return fmt::format("h {}", w(op.target));
@@ -71,19 +71,19 @@ std::string bare_op(const Circuit& c, const Op& op) {
     case OpKind::RY: return fmt::format("ry({}) {}", a0, w(op.target));
     case OpKind::RZ: return fmt::format("rz({}) {}", a0, w(op.target));
     case OpKind::U:
-        return fmt::format("u({}, {}, {}) {}", a0, op.angles[1].to_string(), op.angles[2].to_string(), w(op.target));
+        return fmt::format("u({}, {}, {}) {}", a0, op.phi().to_string(), op.lambda().to_string(), w(op.target));
     case OpKind::Swap: return fmt::format("{} <-> {}", w(op.target), w(op.target2));
     case OpKind::ISwap: return fmt::format("iswap {}, {}", w(op.target), w(op.target2));
     case OpKind::XX: return fmt::format("xx({}) {}, {}", a0, w(op.target), w(op.target2));
-    case OpKind::R: return fmt::format("r({}, {}) {}", a0, op.angles[1].to_string(), w(op.target));
+    case OpKind::R: return fmt::format("r({}, {}) {}", a0, op.phi().to_string(), w(op.target));
     case OpKind::Reset: return fmt::format("reset {}", w(op.target));
     case OpKind::Measure: {
         for (const ClassicalRegister& r : c.cregs) {
-            if (op.cbit < int32_t(r.first) || op.cbit >= int32_t(r.first + r.size)) continue;
+            if (op.cbit() < int32_t(r.first) || op.cbit() >= int32_t(r.first + r.size)) continue;
             if (r.scalar) return fmt::format("measure {} as {}", w(op.target), name_text(r.name));
-            return fmt::format("measure {} as {}[{}]", w(op.target), name_text(r.name), uint32_t(op.cbit) - r.first);
+            return fmt::format("measure {} as {}[{}]", w(op.target), name_text(r.name), uint32_t(op.cbit()) - r.first);
         }
-        return fmt::format("measure {} as <bit {}>", w(op.target), op.cbit);
+        return fmt::format("measure {} as <bit {}>", w(op.target), op.cbit());
     }
     case OpKind::Barrier: return op.controls.empty() ? "barrier" : "barrier " + product_text(c, op.controls, ", ");
     case OpKind::Phase:
@@ -101,18 +101,18 @@ std::string op_statement(const Circuit& c, const Op& op) {
     case OpKind::Phase: {
         if (op.controls.size() == 1 && op.controls[0].positive()) {
             const std::string q = wire_text(c, op.controls[0].wire());
-            const Angle& a = op.angles[0];
+            const Angle& a = op.angle;
             if (a == Angle::pi_times(1) && a.is_exact()) return "z " + q;
             if (a.is_exact() && a == Angle::pi_times(1, 2)) return "s " + q;
             if (a.is_exact() && a == Angle::pi_times(-1, 2)) return "~s " + q;
             if (a.is_exact() && a == Angle::pi_times(1, 4)) return "t " + q;
             if (a.is_exact() && a == Angle::pi_times(-1, 4)) return "~t " + q;
         }
-        return fmt::format("phase({}) {}", op.angles[0].to_string(), product_text(c, op.controls, " & "));
+        return fmt::format("phase({}) {}", op.angle.to_string(), product_text(c, op.controls, " & "));
     }
     case OpKind::Parity:
         // A one-wire parity keeps its kind through the explicit `^ 0`.
-        return fmt::format("phase({}) {}{}", op.angles[0].to_string(), product_text(c, op.controls, " ^ "),
+        return fmt::format("phase({}) {}{}", op.angle.to_string(), product_text(c, op.controls, " ^ "),
                            op.controls.size() == 1 ? " ^ 0" : "");
     case OpKind::Barrier: return bare_op(c, op);
     default: break;
@@ -123,11 +123,11 @@ std::string op_statement(const Circuit& c, const Op& op) {
 
 std::string with_condition(const Circuit& c, const Op& op, std::string stmt) {
     if (!op.is_conditioned()) return stmt;
-    if (size_t(op.cond_reg) >= c.cregs.size()) return fmt::format("if <bits {}> == {} {{ {} }}", op.cond_reg, op.cond_value, stmt);
-    const ClassicalRegister& r = c.cregs[size_t(op.cond_reg)];
-    if (r.scalar && op.cond_value == 1) return fmt::format("if {} {{ {} }}", name_text(r.name), stmt);
-    if (r.scalar && op.cond_value == 0) return fmt::format("if !{} {{ {} }}", name_text(r.name), stmt);
-    return fmt::format("if {} == {} {{ {} }}", name_text(r.name), op.cond_value, stmt);
+    if (size_t(op.cond_reg()) >= c.cregs.size()) return fmt::format("if <bits {}> == {} {{ {} }}", op.cond_reg(), op.cond_value(), stmt);
+    const ClassicalRegister& r = c.cregs[size_t(op.cond_reg())];
+    if (r.scalar && op.cond_value() == 1) return fmt::format("if {} {{ {} }}", name_text(r.name), stmt);
+    if (r.scalar && op.cond_value() == 0) return fmt::format("if !{} {{ {} }}", name_text(r.name), stmt);
+    return fmt::format("if {} == {} {{ {} }}", name_text(r.name), op.cond_value(), stmt);
 }
 
 std::string tag_text(const Op& op) {

@@ -9,12 +9,12 @@ namespace {
 
 bool is_t_like(const Op& op) {
     if (op.kind == OpKind::Phase && op.controls.size() == 1) {
-        int e = op.angles[0].eighths();
+        int e = op.angle.eighths();
         return e >= 0 && (e % 2) == 1;
     }
     if ((op.kind == OpKind::RZ || op.kind == OpKind::Parity) && op.controls.size() <= 1) {
         if (op.kind == OpKind::Parity && op.controls.size() != 1) return false;
-        int e = op.angles[0].eighths();
+        int e = op.angle.eighths();
         return e >= 0 && (e % 2) == 1;
     }
     return false;
@@ -38,7 +38,7 @@ std::string gate_name(const Op& op) {
         if (nc == 2) return "ccx";
         return "mcx";
     case OpKind::Phase: {
-        int e = op.angles[0].eighths();
+        int e = op.angle.eighths();
         if (nc == 1) {
             switch (e) {
             case 4: return "z";
@@ -84,7 +84,7 @@ constexpr size_t kKinds = size_t(OpKind::Barrier) + 1;
 
 size_t name_key(const Op& op) {
     const size_t nc = std::min<size_t>(op.controls.size(), kControlBuckets - 1);
-    const size_t e = op.kind == OpKind::Phase ? size_t(op.angles[0].eighths() + 1) : 0;
+    const size_t e = op.kind == OpKind::Phase ? size_t(op.angle.eighths() + 1) : 0;
     return (size_t(op.kind) * kControlBuckets + nc) * kAngleBuckets + e;
 }
 
@@ -118,7 +118,7 @@ Resources count_resources(const Circuit& c) {
         if (wires.size() == 2) ++r.two_qubit_count;
         const bool rotation = op.kind == OpKind::Phase || op.kind == OpKind::Parity || op.kind == OpKind::RX ||
                               op.kind == OpKind::RY || op.kind == OpKind::RZ;
-        if (rotation && !op.angles[0].is_multiple_of_pi_over(4)) ++r.non_clifford_rotations;
+        if (rotation && !op.angle.is_multiple_of_pi_over(4)) ++r.non_clifford_rotations;
         uint64_t l = 0, tl = 0;
         for (uint32_t w : wires) {
             l = std::max(l, layer[w]);

@@ -35,12 +35,12 @@ void StateVector::randomize(std::mt19937_64& rng) {
 }
 
 bool condition_holds(const Op& op, const Circuit& c, const std::vector<uint8_t>& cbits) {
-    if (op.cond_reg < 0) return true;
-    const ClassicalRegister& r = c.cregs.at(size_t(op.cond_reg));
+    if (op.cond_reg() < 0) return true;
+    const ClassicalRegister& r = c.cregs.at(size_t(op.cond_reg()));
     uint64_t v = 0;
     for (uint32_t b = 0; b < r.size && b < 64; ++b)
         if (cbits.at(r.first + b)) v |= uint64_t(1) << b;
-    return v == op.cond_value;
+    return v == op.cond_value();
 }
 
 void StateVector::apply(const Op& op, const Circuit& c, std::vector<uint8_t>& cbits, std::mt19937_64& rng) {
@@ -51,13 +51,13 @@ void StateVector::apply(const Op& op, const Circuit& c, std::vector<uint8_t>& cb
     switch (op.kind) {
     case OpKind::Barrier: return;
     case OpKind::Phase: {
-        const Complex f = std::polar(1.0, op.angles[0].to_radians());
+        const Complex f = std::polar(1.0, op.angle.to_radians());
         for (uint64_t i = 0; i < dim; ++i)
             if ((i & care) == want) amp_(Eigen::Index(i)) *= f;
         return;
     }
     case OpKind::Parity: {
-        const Complex f = std::polar(1.0, op.angles[0].to_radians());
+        const Complex f = std::polar(1.0, op.angle.to_radians());
         for (uint64_t i = 0; i < dim; ++i)
             if (__builtin_popcountll(i & care) & 1) amp_(Eigen::Index(i)) *= f;
         return;
@@ -92,7 +92,7 @@ void StateVector::apply(const Op& op, const Circuit& c, std::vector<uint8_t>& cb
             else if (keep > 0) amp_(Eigen::Index(i)) /= keep;
         }
         if (op.kind == OpKind::Measure) {
-            cbits.at(size_t(op.cbit)) = one ? 1 : 0;
+            cbits.at(size_t(op.cbit())) = one ? 1 : 0;
         } else if (one) {
             for (uint64_t i = 0; i < dim; ++i)
                 if (i & bt) std::swap(amp_(Eigen::Index(i)), amp_(Eigen::Index(i ^ bt)));

@@ -43,7 +43,7 @@ ConstructionCost ControlLowerer::estimate(const std::vector<ir::Op>& ops) const 
     const bool depth = style_ == ControlStyle::Depth;
     for (const ir::Op& op : ops) {
         const bool toffoli = op.kind == ir::OpKind::X && op.controls.size() == 2;
-        const bool ccz = op.kind == ir::OpKind::Phase && op.controls.size() == 3 && op.angles[0] == ir::Angle::pi_times(1);
+        const bool ccz = op.kind == ir::OpKind::Phase && op.controls.size() == 3 && op.angle == ir::Angle::pi_times(1);
         if (!toffoli && !ccz) {
             s.push(op);
             continue;
@@ -78,7 +78,7 @@ ConstructionCost ControlLowerer::estimate(const std::vector<ir::Op>& ops) const 
         for (uint32_t w : wires) l = std::max(l, layer[w]);
         const bool rotation = op.kind == ir::OpKind::Phase || op.kind == ir::OpKind::Parity ||
                               op.kind == ir::OpKind::RX || op.kind == ir::OpKind::RY || op.kind == ir::OpKind::RZ;
-        l += rotation && !op.angles[0].is_multiple_of_pi_over(4) ? rotation_depth_cost_ : 1;
+        l += rotation && !op.angle.is_multiple_of_pi_over(4) ? rotation_depth_cost_ : 1;
         for (uint32_t w : wires) layer[w] = l;
         k.depth = std::max(k.depth, l);
     }

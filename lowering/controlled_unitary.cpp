@@ -139,11 +139,11 @@ void ControlLowerer::mc_one_qubit(const LitVec& controls, const Op& op) {
     switch (op.kind) {
     case OpKind::X: mcx(controls, t); return;
     case OpKind::Phase:
-    case OpKind::Parity: mc_phase(with_t, op.angles[0]); return;
+    case OpKind::Parity: mc_phase(with_t, op.angle); return;
     case OpKind::RZ:
         // Rz(f) = e^{-if/2} diag(1, e^{if}).
-        mc_phase(controls, -op.angles[0].divided_by(2));
-        mc_phase(with_t, op.angles[0]);
+        mc_phase(controls, -op.angle.divided_by(2));
+        mc_phase(with_t, op.angle);
         return;
     case OpKind::RX:
     case OpKind::SX:
@@ -151,7 +151,7 @@ void ControlLowerer::mc_one_qubit(const LitVec& controls, const Op& op) {
         // Rx(f) = H Rz(f) H; SX = H S H, SXdg = H Sdg H.
         plain(OpKind::H);
         if (op.kind == OpKind::RX) {
-            mc_one_qubit(controls, Op::one(OpKind::RZ, t, op.angles[0]));
+            mc_one_qubit(controls, Op::one(OpKind::RZ, t, op.angle));
         } else {
             mc_phase(with_t, Angle::pi_times(op.kind == OpKind::SX ? 1 : -1, 2));
         }
@@ -161,7 +161,7 @@ void ControlLowerer::mc_one_qubit(const LitVec& controls, const Op& op) {
     case OpKind::RY: {
         // Ry(f) = S Rx(f) Sdg.
         sink_->phase(Angle::pi_times(-1, 2), {Lit::pos(t)});
-        mc_one_qubit(controls, Op::one(OpKind::RX, t, op.angles[0]));
+        mc_one_qubit(controls, Op::one(OpKind::RX, t, op.angle));
         sink_->phase(Angle::pi_times(1, 2), {Lit::pos(t)});
         return;
     }

@@ -70,7 +70,7 @@ std::string literal_text(const ir::Circuit& c, ir::Lit l, const Symbols& sym) {
 }
 
 std::string one_qubit_label(const ir::Op& op, const Symbols& sym, bool ascii) {
-    auto a = [&](int i) { return angle_label(op.angles[i], ascii); };
+    auto a = [&](int i) { return angle_label(i == 0 ? op.angle : i == 1 ? op.phi() : op.lambda(), ascii); };
     switch (op.kind) {
     case ir::OpKind::H: return "H";
     case ir::OpKind::Y: return "Y";
@@ -83,7 +83,7 @@ std::string one_qubit_label(const ir::Op& op, const Symbols& sym, bool ascii) {
     case ir::OpKind::R: return fmt::format("R({},{})", a(0), a(1));
     case ir::OpKind::Reset: return ascii ? "|0>" : "|0⟩";
     case ir::OpKind::Phase:
-        switch (op.angles[0].eighths()) {
+        switch (op.angle.eighths()) {
         case 4: return "Z";
         case 2: return "S";
         case 6: return std::string("S") + sym.dagger;
@@ -125,14 +125,14 @@ bool make_glyph(const ir::Circuit& c, const ir::Op& op, const LayoutOptions& opt
         }
         g.kind = GlyphKind::PhaseBar;
         add_controls(g, op);
-        g.label = angle_label(op.angles[0], opts.ascii) + sym.dot;
+        g.label = angle_label(op.angle, opts.ascii) + sym.dot;
         for (size_t i = 0; i < op.controls.size(); ++i)
             g.label += (i ? sym.conj : "") + literal_text(c, op.controls[i], sym);
         break;
     case ir::OpKind::Parity:
         if (op.controls.empty()) return false;
         g.kind = GlyphKind::ParityBar;
-        g.label = angle_label(op.angles[0], opts.ascii) + sym.dot;
+        g.label = angle_label(op.angle, opts.ascii) + sym.dot;
         for (size_t i = 0; i < op.controls.size(); ++i) {
             g.marks.push_back({op.controls[i].wire(), MarkKind::ParityWire, ""});
             g.label += (i ? sym.xor_ : "") + c.wire_name(op.controls[i].wire());
@@ -159,18 +159,18 @@ bool make_glyph(const ir::Circuit& c, const ir::Op& op, const LayoutOptions& opt
     case ir::OpKind::ISwap:
     case ir::OpKind::XX:
         g.kind = GlyphKind::Block;
-        g.label = op.kind == ir::OpKind::ISwap ? "iSWAP" : fmt::format("XX({})", angle_label(op.angles[0], opts.ascii));
+        g.label = op.kind == ir::OpKind::ISwap ? "iSWAP" : fmt::format("XX({})", angle_label(op.angle, opts.ascii));
         g.marks.push_back({op.target, MarkKind::Box, ""});
         g.marks.push_back({op.target2, MarkKind::Box, ""});
         break;
     case ir::OpKind::Measure: {
         g.marks.push_back({op.target, MarkKind::Box, "M"});
-        int32_t reg = creg_of_bit(c, op.cbit);
+        int32_t reg = creg_of_bit(c, op.cbit());
         WHITTLE_ASSERT(reg >= 0 && "a measured bit belongs to a classical register");
         const ir::ClassicalRegister& r = c.cregs[size_t(reg)];
         g.classical = int32_t(nq) + reg;
         g.marks.push_back({uint32_t(g.classical), MarkKind::Readout,
-                           r.scalar ? "" : fmt::format("{}", uint32_t(op.cbit) - r.first)});
+                           r.scalar ? "" : fmt::format("{}", uint32_t(op.cbit()) - r.first)});
         break;
     }
     case ir::OpKind::Barrier:
@@ -180,8 +180,8 @@ bool make_glyph(const ir::Circuit& c, const ir::Op& op, const LayoutOptions& opt
         break;
     }
     if (op.is_conditioned()) {
-        g.classical = int32_t(nq) + op.cond_reg;
-        g.marks.push_back({uint32_t(g.classical), MarkKind::CondTap, fmt::format("={}", op.cond_value)});
+        g.classical = int32_t(nq) + op.cond_reg();
+        g.marks.push_back({uint32_t(g.classical), MarkKind::CondTap, fmt::format("={}", op.cond_value())});
     }
     g.lo = g.marks.front().lane;
     g.hi = g.lo;

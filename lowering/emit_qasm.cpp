@@ -90,9 +90,9 @@ private:
             body_ += stmt + "\n";
             return;
         }
-        const std::string& reg = names_.cregs[size_t(cur_->cond_reg)];
-        if (d_ == Dialect::V2) body_ += fmt::format("if({}=={}) {}\n", reg, cur_->cond_value, stmt);
-        else body_ += fmt::format("if ({} == {}) {{ {} }}\n", reg, cur_->cond_value, stmt);
+        const std::string& reg = names_.cregs[size_t(cur_->cond_reg())];
+        if (d_ == Dialect::V2) body_ += fmt::format("if({}=={}) {}\n", reg, cur_->cond_value(), stmt);
+        else body_ += fmt::format("if ({} == {}) {{ {} }}\n", reg, cur_->cond_value(), stmt);
     }
 
     /// `name(params) wires;`
@@ -136,8 +136,8 @@ private:
         cur_ = &op;
         switch (op.kind) {
         case OpKind::Measure:
-            if (d_ == Dialect::V2) line(fmt::format("measure {} -> {};", q(op.target), bit(op.cbit)));
-            else line(fmt::format("{} = measure {};", bit(op.cbit), q(op.target)));
+            if (d_ == Dialect::V2) line(fmt::format("measure {} -> {};", q(op.target), bit(op.cbit())));
+            else line(fmt::format("{} = measure {};", bit(op.cbit()), q(op.target)));
             return;
         case OpKind::Reset: return gate("reset", {}, {op.target});
         case OpKind::Barrier: {
@@ -152,10 +152,10 @@ private:
         case OpKind::XX:
             // 2.0: rxx of the later qelib1.inc; 3.0: defined in the file.
             if (d_ == Dialect::V3) use_rxx_ = true;
-            return gate("rxx", {text(op.angle())}, {op.target, op.target2});
+            return gate("rxx", {text(op.angle)}, {op.target, op.target2});
         case OpKind::R:
             use_r_ = true;
-            return gate("r", {text(op.angles[0]), text(op.angles[1])}, {op.target});
+            return gate("r", {text(op.angle), text(op.phi())}, {op.target});
         case OpKind::Parity: return parity(op);
         case OpKind::X:
         case OpKind::Phase:
@@ -175,7 +175,7 @@ private:
                 if (!l.positive()) flips.push_back(l.wire());
             }
             for (uint32_t w : flips) gate("x", {}, {w});
-            if (op.kind == OpKind::Phase) phase(op.angle(), wires);
+            if (op.kind == OpKind::Phase) phase(op.angle, wires);
             else controlled(op, wires);
             for (uint32_t w : flips) gate("x", {}, {w});
             return;
@@ -190,7 +190,7 @@ private:
         for (Lit l : op.controls) ws.push_back(l.wire());
         uint32_t last = ws.back();
         for (size_t i = 0; i + 1 < ws.size(); ++i) gate("cx", {}, {ws[i], last});
-        phase(op.angle(), {last});
+        phase(op.angle, {last});
         for (size_t i = ws.size() - 1; i-- > 0;) gate("cx", {}, {ws[i], last});
     }
 
@@ -236,7 +236,7 @@ private:
             if (v2 && n > allowed)
                 refuse(fmt::format("'{}' with {} controls", ir::op_kind_name(op.kind), n));
         };
-        const std::string th = stored_angle_text(op.angle());  // exact under controls (see above)
+        const std::string th = stored_angle_text(op.angle);  // exact under controls (see above)
         switch (op.kind) {
         case OpKind::X:
             too_many(2);
@@ -267,7 +267,7 @@ private:
         case OpKind::RZ: {
             too_many(1);
             const char* base = op.kind == OpKind::RX ? "rx" : op.kind == OpKind::RY ? "ry" : "rz";
-            if (n == 0) return gate(base, {text(op.angle())}, {t});
+            if (n == 0) return gate(base, {text(op.angle)}, {t});
             if (!v2) {
                 if (n == 1) return gate(std::string("c") + base, {th}, with({t}));
                 return ctrl_gate(base, {th}, cs, {t});
@@ -280,17 +280,17 @@ private:
                 return;
             }
             // controlled Ry(theta): Ry(theta/2), CX, Ry(-theta/2), CX (X Ry(a) X = Ry(-a)).
-            gate("ry", {text(op.angle().divided_by(2))}, {t});
+            gate("ry", {text(op.angle.divided_by(2))}, {t});
             gate("cx", {}, with({t}));
-            gate("ry", {text(-op.angle().divided_by(2))}, {t});
+            gate("ry", {text(-op.angle.divided_by(2))}, {t});
             gate("cx", {}, with({t}));
             return;
         }
         case OpKind::U: {
             too_many(1);
-            const Angle& theta = op.angles[0];
-            const Angle& phi = op.angles[1];
-            const Angle& lambda = op.angles[2];
+            const Angle& theta = op.angle;
+            const Angle phi = op.phi();
+            const Angle lambda = op.lambda();
             if (n == 0) return gate(v2 ? "u3" : "U", {text(theta), text(phi), text(lambda)}, {t});
             if (!v2) {
                 if (n == 1) return gate("cu", {th, text(phi), text(lambda), "0"}, with({t}));

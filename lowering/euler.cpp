@@ -171,7 +171,7 @@ bool synthesize_1q(const Mat2& u, uint32_t w, OneQubitBasis basis, std::vector<i
         EulerAngles x = euler_zxz(u);
         if (!x.b.is_zero()) {
             Op r = Op::one(OpKind::R, w, x.b);
-            r.angles[1] = -x.c;
+            r.set_phi(-x.c);
             ops.push_back(r);
         }
         rot(OpKind::RZ, x.a + x.c);

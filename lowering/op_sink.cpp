@@ -7,14 +7,13 @@ namespace whittle::lowering {
 
 void OpSink::inherit(const ir::Op& origin) {
     loc_ = origin.loc;
-    cond_reg_ = origin.cond_reg;
-    cond_value_ = origin.cond_value;
+    cond_reg_ = origin.cond_reg();
+    cond_value_ = origin.cond_value();
 }
 
 void OpSink::push(ir::Op op) {
     op.loc = loc_;
-    op.cond_reg = cond_reg_;
-    op.cond_value = cond_value_;
+    op.set_condition(cond_reg_, cond_value_);
     out_->push_back(std::move(op));
 }
 

@@ -116,11 +116,11 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c, RotationBudget
         if (nc == 1) {
             // e^{ia(1-x)} = e^{ia} e^{-iax} for a negative literal.
             const Lit l = op.controls[0];
-            if (!l.positive()) s.add_global_phase(op.angles[0]);
-            phase_word(s, budget, l.positive() ? op.angles[0] : -op.angles[0], l.wire());
+            if (!l.positive()) s.add_global_phase(op.angle);
+            phase_word(s, budget, l.positive() ? op.angle : -op.angle, l.wire());
             return;
         }
-        if (op.angles[0] != Angle::pi_times(1) || nc > 3) needs_controls_lowered();
+        if (op.angle != Angle::pi_times(1) || nc > 3) needs_controls_lowered();
         flip_negative(s, op.controls);
         if (nc == 2) {
             s.h(op.controls[1].wire());
@@ -135,7 +135,7 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c, RotationBudget
     case OpKind::Parity: {
         const uint32_t last = op.controls.back().wire();
         for (size_t i = 0; i + 1 < nc; ++i) s.cx(Lit::pos(op.controls[i].wire()), last);
-        phase_word(s, budget, op.angles[0], last);
+        phase_word(s, budget, op.angle, last);
         for (size_t i = nc - 1; i-- > 0;) s.cx(Lit::pos(op.controls[i].wire()), last);
         return;
     }
@@ -153,17 +153,17 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c, RotationBudget
         s.phase(Angle::pi_times(op.kind == OpKind::SX ? 1 : -1, 2), {Lit::pos(w)});
         s.h(w);
         return;
-    case OpKind::RZ: rz(s, budget, op.angles[0], w); return;
+    case OpKind::RZ: rz(s, budget, op.angle, w); return;
     case OpKind::RX:
         s.h(w);
-        rz(s, budget, op.angles[0], w);
+        rz(s, budget, op.angle, w);
         s.h(w);
         return;
     case OpKind::RY:
         // Ry = S Rx Sdg.
         s.phase(Angle::pi_times(-1, 2), {Lit::pos(w)});
         s.h(w);
-        rz(s, budget, op.angles[0], w);
+        rz(s, budget, op.angle, w);
         s.h(w);
         s.phase(Angle::pi_times(1, 2), {Lit::pos(w)});
         return;
@@ -178,8 +178,8 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c, RotationBudget
         }
         // Arbitrary angles: U(theta, phi, lambda) = e^{i(phi+lambda)/2} Rz(phi) Ry(theta) Rz(lambda)
         // and R(theta, phi) = Rz(phi) Rx(theta) Rz(-phi), each Rz approximated.
-        const Angle theta = op.angles[0], phi = op.angles[1];
-        const Angle first = op.kind == OpKind::U ? op.angles[2] : -phi;
+        const Angle theta = op.angle, phi = op.phi();
+        const Angle first = op.kind == OpKind::U ? op.lambda() : -phi;
         rz(s, budget, first, w);
         if (op.kind == OpKind::U) s.phase(Angle::pi_times(-1, 2), {Lit::pos(w)});  // Ry = S Rx Sdg
         s.h(w);
@@ -187,7 +187,7 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c, RotationBudget
         s.h(w);
         if (op.kind == OpKind::U) s.phase(Angle::pi_times(1, 2), {Lit::pos(w)});
         rz(s, budget, phi, w);
-        if (op.kind == OpKind::U) s.add_global_phase((phi + op.angles[2]).divided_by(2));
+        if (op.kind == OpKind::U) s.add_global_phase((phi + op.lambda()).divided_by(2));
         return;
     }
     case OpKind::Swap:
@@ -195,7 +195,7 @@ void to_clifford_t(const Op& op, OpSink& s, const ir::Circuit& c, RotationBudget
         s.cx(Lit::pos(op.target2), op.target);
         s.cx(Lit::pos(op.target), op.target2);
         return;
-    case OpKind::XX: xx(s, budget, op.angles[0], op.target, op.target2); return;
+    case OpKind::XX: xx(s, budget, op.angle, op.target, op.target2); return;
     case OpKind::ISwap: {
         // iSWAP = exp(i pi/4 (XX + YY)) = XX(-pi/2) YY(-pi/2); YY(a) = (S x S) XX(a) (Sdg x Sdg).
         const Angle m = Angle::pi_times(-1, 2);

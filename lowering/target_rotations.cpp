@@ -31,21 +31,21 @@ bool direct_one_qubit(const Op& op, OpSink& s, Target t) {
     const bool has_rz = basis != OneQubitBasis::U3;
     if (has_rz && op.kind == OpKind::Phase) {
         // diag(1, e^{ia}) = e^{ia/2} Rz(a).
-        s.one(OpKind::RZ, w, op.angles[0]);
-        s.add_global_phase(op.angles[0].divided_by(2));
+        s.one(OpKind::RZ, w, op.angle);
+        s.add_global_phase(op.angle.divided_by(2));
         return true;
     }
     if (basis == OneQubitBasis::ZXZ && op.kind == OpKind::RX) {
-        s.push(Op::one(OpKind::RX, w, op.angles[0]));
+        s.push(Op::one(OpKind::RX, w, op.angle));
         return true;
     }
     if (basis == OneQubitBasis::RRz && op.kind == OpKind::RX) {
-        s.push(Op::one(OpKind::R, w, op.angles[0]));  // R(theta, 0) = Rx(theta)
+        s.push(Op::one(OpKind::R, w, op.angle));  // R(theta, 0) = Rx(theta)
         return true;
     }
     if (basis == OneQubitBasis::RRz && op.kind == OpKind::RY) {
-        Op r = Op::one(OpKind::R, w, op.angles[0]);
-        r.angles[1] = Angle::pi_times(1, 2);  // R(theta, pi/2) = Ry(theta)
+        Op r = Op::one(OpKind::R, w, op.angle);
+        r.set_phi(Angle::pi_times(1, 2));  // R(theta, pi/2) = Ry(theta)
         s.push(r);
         return true;
     }
@@ -78,10 +78,10 @@ void to_rotation_target(const Op& op, OpSink& s, const ir::Circuit& c, Target t)
         Op norm = op;
         if (op.kind == OpKind::Phase || op.kind == OpKind::Parity) {
             // A phase on one literal: e^{ia(1-x)} = e^{ia} e^{-iax} when negative.
-            norm = Op::phase(op.angles[0], {Lit::pos(op.controls[0].wire())});
+            norm = Op::phase(op.angle, {Lit::pos(op.controls[0].wire())});
             if (!op.controls[0].positive()) {
-                norm.angles[0] = -op.angles[0];
-                s.add_global_phase(op.angles[0]);
+                norm.angle = -op.angle;
+                s.add_global_phase(op.angle);
             }
             norm.target = op.controls[0].wire();
         }
@@ -124,7 +124,7 @@ void to_rotation_target(const Op& op, OpSink& s, const ir::Circuit& c, Target t)
                         op.loc);
     const uint32_t a = wires[0], b = wires[1];
     Op plain = op;
-    plain.cond_reg = -1;
+    plain.set_condition(-1, 0);
     const ir::Mat4 u = two_qubit_product({plain}, a, b);
     TwoQubitSynthesis syn = synthesize_2q(u, a, b, entangler(t), one_qubit_basis(t));
     WHITTLE_ASSERT(syn.error < 1e-9 && "two-qubit synthesis missed its accuracy");

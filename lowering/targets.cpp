@@ -13,7 +13,7 @@ using ir::OpKind;
 bool is_phase_word_gate(const ir::Op& op) {
     // S, Sdg, T, Tdg, Z: one positive literal, angle in {pi/4, pi/2, pi, -pi/2, -pi/4}.
     if (op.kind != OpKind::Phase || op.controls.size() != 1 || !op.controls[0].positive()) return false;
-    const int e = op.angles[0].eighths();
+    const int e = op.angle.eighths();
     return e == 1 || e == 2 || e == 4 || e == 6 || e == 7;
 }
 
@@ -94,7 +94,7 @@ bool in_target(const ir::Op& op, Target t) {
     case Target::Nct: return op.kind == OpKind::X && nc <= 2 && positive(op) && !op.is_conditioned();
     case Target::CxRzSx: return x || cnot || (uncontrolled && (op.kind == OpKind::RZ || op.kind == OpKind::SX));
     case Target::CzRxRz:
-        return (op.kind == OpKind::Phase && nc == 2 && positive(op) && op.angles[0] == ir::Angle::pi_times(1)) ||
+        return (op.kind == OpKind::Phase && nc == 2 && positive(op) && op.angle == ir::Angle::pi_times(1)) ||
                (uncontrolled && (op.kind == OpKind::RX || op.kind == OpKind::RZ));
     case Target::ISwapRzRx:
         return op.kind == OpKind::ISwap || (uncontrolled && (op.kind == OpKind::RX || op.kind == OpKind::RZ));

@@ -101,8 +101,7 @@ void measured_erase(OpSink& s, uint32_t a, uint32_t b, uint32_t tw, int32_t creg
     s.push(cz);
     s.push(flip);
     for (size_t i = out.size() - 2; i < out.size(); ++i) {
-        out[i].cond_reg = creg;
-        out[i].cond_value = 1;
+        out[i].set_condition(creg, 1);
     }
 }
 

@@ -225,7 +225,7 @@ Mat4 two_qubit_product(const std::vector<Op>& ops, uint32_t a, uint32_t b) {
         if (op.target != ir::kNoWire) op.target = map(op.target);
         if (op.target2 != ir::kNoWire) op.target2 = map(op.target2);
         for (ir::Lit& l : op.controls) l = ir::Lit::make(map(l.wire()), l.positive());
-        op.cond_reg = -1;
+        op.set_condition(-1, 0);
         c.ops.push_back(op);
     }
     return ir::circuit_unitary(c);

@@ -80,8 +80,8 @@ Combined cancel_rule(Op& e, const Op& m, Angle& global, std::vector<uint32_t>&, 
         return Combined::Vanished;
     case OpKind::Phase:
     case OpKind::Parity:
-        e.angles[0] += m.angles[0];
-        if (e.angles[0].is_zero()) {
+        e.angle += m.angle;
+        if (e.angle.is_zero()) {
             result.count("phases-cancelled");
             return Combined::Vanished;
         }
@@ -90,11 +90,11 @@ Combined cancel_rule(Op& e, const Op& m, Angle& global, std::vector<uint32_t>&, 
     case OpKind::RX:
     case OpKind::RY:
     case OpKind::RZ: {
-        Angle sum = e.angles[0];
-        const bool wrapped = add_rotation_angle(sum, m.angles[0]);
+        Angle sum = e.angle;
+        const bool wrapped = add_rotation_angle(sum, m.angle);
         if (wrapped && !e.controls.empty()) return Combined::No;
         if (wrapped) global += Angle::pi_times(1);
-        e.angles[0] = sum;
+        e.angle = sum;
         if (sum.is_zero()) {
             result.count("rotations-cancelled");
             return Combined::Vanished;
@@ -122,12 +122,12 @@ Combined merge_controls_rule(Op& e, const Op& m, Angle& global, std::vector<uint
     const bool x = e.kind == OpKind::X;
     // Merge: op(C & l) and op(C & !l) -> op(C). A Phase needs at least one literal left.
     int d = single_polarity_difference(e.controls, m.controls);
-    if (d >= 0 && !x && e.angles[0] == m.angles[0] && e.controls.size() == 1) {
-        global += e.angles[0];  // e^{it x} e^{it (1-x)} = e^{it}
+    if (d >= 0 && !x && e.angle == m.angle && e.controls.size() == 1) {
+        global += e.angle;  // e^{it x} e^{it (1-x)} = e^{it}
         result.count("controls-merged");
         return Combined::Vanished;
     }
-    if (d >= 0 && (x || e.angles[0] == m.angles[0])) {
+    if (d >= 0 && (x || e.angle == m.angle)) {
         e.controls.erase(e.controls.begin() + d);
         result.count("controls-merged");
         return Combined::Absorbed;
@@ -137,7 +137,7 @@ Combined merge_controls_rule(Op& e, const Op& m, Angle& global, std::vector<uint
     Lit extra;
     if (std::min(e.controls.size(), m.controls.size()) == 0) return Combined::No;
     if (one_extra_literal(e.controls, m.controls, extra)) {
-        if (!x && !(e.angles[0] + m.angles[0]).is_zero()) return Combined::No;
+        if (!x && !(e.angle + m.angle).is_zero()) return Combined::No;
         e.controls.push_back(extra.flipped());
         std::sort(e.controls.begin(), e.controls.end());
         added_wires.push_back(extra.wire());
@@ -145,12 +145,12 @@ Combined merge_controls_rule(Op& e, const Op& m, Angle& global, std::vector<uint
         return Combined::Absorbed;
     }
     if (one_extra_literal(m.controls, e.controls, extra)) {
-        if (!x && !(e.angles[0] + m.angles[0]).is_zero()) return Combined::No;
+        if (!x && !(e.angle + m.angle).is_zero()) return Combined::No;
         // e = op(C & l), m = op(C) (phase: m's angle is -e's): the result is e's op under C & !l,
         // with the angle of the unconditioned one.
         for (Lit& l : e.controls)
             if (l == extra) l = extra.flipped();
-        if (!x) e.angles[0] = m.angles[0];
+        if (!x) e.angle = m.angle;
         std::sort(e.controls.begin(), e.controls.end());
         result.count("controls-split");
         return Combined::Absorbed;

@@ -65,15 +65,15 @@ bool move_before_not(uint32_t w, Op& mover, ir::Angle& global) {
     if (mover.target == w || mover.target2 == w) {
         if (wire_role(mover, w) == WireRole::X) return true;
         if (mover.kind == OpKind::RZ && mover.controls.empty()) {
-            if (!mover.angles[0].is_zero()) global += ir::Angle::pi_times(1);
-            mover.angles[0] = -mover.angles[0];
+            if (!mover.angle.is_zero()) global += ir::Angle::pi_times(1);
+            mover.angle = -mover.angle;
             return true;
         }
         return false;
     }
     if (mover.kind == OpKind::Parity) {
-        global += mover.angles[0];
-        mover.angles[0] = -mover.angles[0];
+        global += mover.angle;
+        mover.angle = -mover.angle;
         return true;
     }
     if (mover.kind == OpKind::Barrier) return false;

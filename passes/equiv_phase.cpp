@@ -40,8 +40,8 @@ int64_t common_denominator(const Aligned& al) {
     for (const ir::Circuit* c : {&al.a, &al.b})
         for (const ir::Op& op : c->ops) {
             if (d == 0) return int64_t(0);
-            take(op.angles[0]);
-            take(op.angles[0].divided_by(2));
+            take(op.angle);
+            take(op.angle.divided_by(2));
         }
     return d;
 }
@@ -73,16 +73,16 @@ void run_lanes(const ir::Circuit& c, int64_t d, Lanes& s) {
             s.wires[op.target2] ^= diff;
             break;
         }
-        case ir::OpKind::Phase: add(on, units(op.angles[0])); break;
+        case ir::OpKind::Phase: add(on, units(op.angle)); break;
         case ir::OpKind::Parity: {
             uint64_t parity = 0;
             for (ir::Lit l : op.controls) parity ^= s.wires[l.wire()];
-            add(parity, units(op.angles[0]));
+            add(parity, units(op.angle));
             break;
         }
         case ir::OpKind::RZ:
-            add(on, units(-op.angles[0].divided_by(2)));
-            add(on & s.wires[op.target], units(op.angles[0]));
+            add(on, units(-op.angle.divided_by(2)));
+            add(on & s.wires[op.target], units(op.angle));
             break;
         case ir::OpKind::Y:
             add(on, d / 2);

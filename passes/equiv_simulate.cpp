@@ -160,7 +160,7 @@ bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vec
             s.apply(op, c, cbits, rng);
             if (op.kind == ir::OpKind::Measure)
                 trail += fmt::format("{}measure {} = {}", trail.empty() ? "" : ", ", c.wire_name(op.target),
-                                     cbits[size_t(op.cbit)]);
+                                     cbits[size_t(op.cbit())]);
             continue;
         }
         const uint64_t bt = uint64_t(1) << op.target;
@@ -175,7 +175,7 @@ bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vec
             std::vector<uint8_t> bits = cbits;
             std::string step;
             if (op.kind == ir::OpKind::Measure) {
-                bits[size_t(op.cbit)] = uint8_t(outcome);
+                bits[size_t(op.cbit())] = uint8_t(outcome);
                 step = fmt::format("measure {} = {}", c.wire_name(op.target), outcome);
             } else {
                 if (outcome)

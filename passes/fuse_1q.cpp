@@ -37,7 +37,7 @@ bool is_one_qubit(const Op& op) {
 uint32_t wire_of(const Op& op) { return op.target != ir::kNoWire ? op.target : op.controls[0].wire(); }
 
 bool is_t_like(const Op& op) {
-    const int e = op.angles[0].eighths();
+    const int e = op.angle.eighths();
     return op.kind == OpKind::Phase && e >= 0 && (e % 2) == 1;
 }
 
@@ -55,8 +55,8 @@ std::vector<Op> simplify_clifford_t(const std::vector<Op>& run, uint32_t w) {
         if (!stack.empty()) {
             Op& top = stack.back();
             if (op.kind == OpKind::Phase && top.kind == OpKind::Phase) {
-                top.angles[0] += op.angles[0];
-                if (top.angles[0].is_zero()) stack.pop_back();
+                top.angle += op.angle;
+                if (top.angle.is_zero()) stack.pop_back();
                 continue;
             }
             if ((op.kind == OpKind::H || op.kind == OpKind::X) && top.kind == op.kind) {
@@ -68,7 +68,7 @@ std::vector<Op> simplify_clifford_t(const std::vector<Op>& run, uint32_t w) {
     }
     std::vector<Op> out;
     for (const Op& op : stack) {
-        if (op.kind == OpKind::Phase) lowering::append_phase_word(op.angles[0].eighths(), w, out);
+        if (op.kind == OpKind::Phase) lowering::append_phase_word(op.angle.eighths(), w, out);
         else out.push_back(op);
     }
     return out;

@@ -19,7 +19,7 @@ bool is_involution(const Op& op) {
     case OpKind::Y:
     case OpKind::H:
     case OpKind::Swap: return true;
-    case OpKind::Phase: return op.angles[0] == ir::Angle::pi_times(1);
+    case OpKind::Phase: return op.angle == ir::Angle::pi_times(1);
     default: return false;
     }
 }

@@ -21,7 +21,7 @@ bool needs_lowering(const ir::Op& op) {
     const size_t nc = op.controls.size();
     switch (op.kind) {
     case OpKind::X: return nc >= 3;
-    case OpKind::Phase: return nc >= 4 || (nc >= 2 && op.angles[0] != ir::Angle::pi_times(1));
+    case OpKind::Phase: return nc >= 4 || (nc >= 2 && op.angle != ir::Angle::pi_times(1));
     case OpKind::Parity: return nc >= 2;
     case OpKind::Swap:
     case OpKind::H:
@@ -121,11 +121,11 @@ PassResult lower_controls(ir::Circuit& c, const PassOptions& opts) {
         ir::LitVec controls = op.controls;
         switch (op.kind) {
         case OpKind::X: lw.mcx(controls, op.target); break;
-        case OpKind::Phase: lw.mc_phase(controls, op.angles[0]); break;
+        case OpKind::Phase: lw.mc_phase(controls, op.angle); break;
         case OpKind::Parity: {
             const uint32_t last = controls.back().wire();
             for (size_t k = 0; k + 1 < controls.size(); ++k) sink.cx(controls[k], last);
-            sink.phase(op.angles[0], {ir::Lit::pos(last)});
+            sink.phase(op.angle, {ir::Lit::pos(last)});
             for (size_t k = controls.size() - 1; k-- > 0;) sink.cx(controls[k], last);
             lw.set_choice(fmt::format("parity/{}: CNOT ladder", controls.size()));
             break;

@@ -20,7 +20,7 @@ using ir::OpKind;
 
 bool is_toffoli(const Op& op) { return op.kind == OpKind::X && op.controls.size() == 2; }
 bool is_ccz(const Op& op) {
-    return op.kind == OpKind::Phase && op.controls.size() == 3 && op.angles[0] == ir::Angle::pi_times(1);
+    return op.kind == OpKind::Phase && op.controls.size() == 3 && op.angle == ir::Angle::pi_times(1);
 }
 
 /// True when the op uses wire w other than as a control or inside a diagonal op.

@@ -28,8 +28,9 @@ struct Normalizer {
         Op p = like;
         p.kind = OpKind::Phase;
         p.target = p.target2 = ir::kNoWire;
-        p.angles[0] = a;
-        p.angles[1] = p.angles[2] = Angle();
+        p.angle = a;
+        p.set_phi(Angle());
+        p.set_lambda(Angle());
         p.controls = std::move(lits);
         out.push_back(std::move(p));
     }
@@ -42,11 +43,11 @@ struct Normalizer {
             return;
         }
         switch (op.kind) {
-        case OpKind::Phase: emit_phase(op, op.angles[0], op.controls); return;
+        case OpKind::Phase: emit_phase(op, op.angle, op.controls); return;
         case OpKind::Parity: {
-            if (op.angles[0].is_zero()) return;
+            if (op.angle.is_zero()) return;
             if (op.controls.size() == 1) {
-                emit_phase(op, op.angles[0], op.controls);
+                emit_phase(op, op.angle, op.controls);
                 return;
             }
             Op o = op;
@@ -55,25 +56,25 @@ struct Normalizer {
             return;
         }
         case OpKind::RZ: {
-            if (op.angles[0].is_zero()) return;
+            if (op.angle.is_zero()) return;
             ir::LitVec with_target = op.controls;
             with_target.push_back(Lit::pos(op.target));
-            if (op.controls.empty()) global += -op.angles[0].divided_by(2);
-            else emit_phase(op, -op.angles[0].divided_by(2), op.controls);
-            emit_phase(op, op.angles[0], with_target);
+            if (op.controls.empty()) global += -op.angle.divided_by(2);
+            else emit_phase(op, -op.angle.divided_by(2), op.controls);
+            emit_phase(op, op.angle, with_target);
             return;
         }
         case OpKind::U: {
-            if (!op.angles[0].is_zero()) break;
+            if (!op.angle.is_zero()) break;
             ir::LitVec with_target = op.controls;
             with_target.push_back(Lit::pos(op.target));
-            emit_phase(op, op.angles[1] + op.angles[2], with_target);
+            emit_phase(op, op.phi() + op.lambda(), with_target);
             return;
         }
         case OpKind::RX:
         case OpKind::RY:
         case OpKind::XX:
-            if (op.angles[0].is_zero()) return;
+            if (op.angle.is_zero()) return;
             break;
         case OpKind::Swap: {
             Op o = op;
@@ -100,8 +101,8 @@ struct Normalizer {
 };
 
 bool same_op(const Op& a, const Op& b) {
-    return a.kind == b.kind && a.target == b.target && a.target2 == b.target2 && a.angles[0] == b.angles[0] &&
-           a.angles[1] == b.angles[1] && a.angles[2] == b.angles[2] &&
+    return a.kind == b.kind && a.target == b.target && a.target2 == b.target2 && a.angle == b.angle &&
+           a.phi() == b.phi() && a.lambda() == b.lambda() &&
            std::equal(a.controls.begin(), a.controls.end(), b.controls.begin(), b.controls.end());
 }
 

@@ -4,9 +4,10 @@
 namespace whittle::passes {
 
 void apply_replacements(ir::Circuit& c, const std::vector<uint8_t>& dropped, std::vector<std::vector<ir::Op>>& insert) {
-    size_t inserted = 0;
-    for (const std::vector<ir::Op>& ops : insert) inserted += ops.size();
-    std::vector<ir::Op> out = ir::take_spare_ops(c.ops.size() + inserted);
+    // The exact size: a second growth would hold three op vectors at once.
+    size_t size = 0;
+    for (size_t i = 0; i < c.ops.size(); ++i) size += (dropped[i] ? 0 : 1) + insert[i].size();
+    std::vector<ir::Op> out = ir::take_spare_ops(size);
     for (size_t i = 0; i < c.ops.size(); ++i) {
         if (!dropped[i]) out.push_back(std::move(c.ops[i]));  // c.ops is replaced below
         for (ir::Op& op : insert[i]) out.push_back(std::move(op));

@@ -24,7 +24,7 @@ PathSum::PathSum(uint32_t num_wires, const std::vector<uint8_t>& clean, bool nam
 
 bool PathSum::supports(const ir::Op& op) {
     if (op.is_conditioned()) return false;
-    for (const ir::Angle& a : op.angles)
+    for (const ir::Angle& a : {op.angle, op.phi(), op.lambda()})
         if (!halvable(a)) return false;
     switch (op.kind) {
     case ir::OpKind::X:
@@ -98,7 +98,7 @@ void PathSum::rz(uint32_t target, const ir::Angle& a, const Anf& on) {
 void PathSum::apply(const ir::Op& op) {
     WHITTLE_ASSERT(supports(op) && "PathSum::apply on an unsupported op");
     const uint32_t t = op.target, t2 = op.target2;
-    const ir::Angle& a = op.angles[0];
+    const ir::Angle& a = op.angle;
     switch (op.kind) {
     case ir::OpKind::Barrier: return;
     case ir::OpKind::X: mcx(t, control_product(op)); return;
@@ -162,7 +162,7 @@ void PathSum::apply(const ir::Op& op) {
         phase_.add_indicator(kHalfPi, out_[t]);
         return;
     case ir::OpKind::U: {  // e^{i(phi+lambda)/2} RZ(phi) RY(theta) RZ(lambda)
-        const ir::Angle &phi = op.angles[1], &lambda = op.angles[2];
+        const ir::Angle phi = op.phi(), lambda = op.lambda();
         rz(t, lambda, Anf::one());
         ir::Op ry = ir::Op::one(ir::OpKind::RY, t, a);
         apply(ry);
@@ -171,7 +171,7 @@ void PathSum::apply(const ir::Op& op) {
         return;
     }
     case ir::OpKind::R: {  // RZ(phi) RX(theta) RZ(-phi)
-        const ir::Angle& phi = op.angles[1];
+        const ir::Angle phi = op.phi();
         rz(t, -phi, Anf::one());
         apply(ir::Op::one(ir::OpKind::RX, t, a));
         rz(t, phi, Anf::one());
@@ -188,8 +188,8 @@ void PathSum::apply_inverse(const ir::Op& op) {
     if (op.kind == ir::OpKind::RZ) {
         // RZ(a)^dagger = e^{+i a/2} e^{-i a [t]} where the controls hold
         const Anf on = control_product(op);
-        phase_.add_indicator(op.angles[0].divided_by(2), on);
-        phase_.add_indicator(-op.angles[0], on & out_[op.target]);
+        phase_.add_indicator(op.angle.divided_by(2), on);
+        phase_.add_indicator(-op.angle, on & out_[op.target]);
         return;
     }
     if (op.kind == ir::OpKind::ISwap) {

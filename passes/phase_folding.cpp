@@ -425,16 +425,16 @@ private:
             if (k == 1) {  // the literal itself, read in place
                 const Lit l = op.controls[0];
                 if (literal_size(l) > s_.max_terms) return;
-                add_term(i, vals_[l.wire()], !l.positive(), op.angles[0], kNoExtra, 1);
+                add_term(i, vals_[l.wire()], !l.positive(), op.angle, kNoExtra, 1);
                 return;
             }
             if (!product(op, prod_)) return;  // too big to compare: not a term
-            add_term(i, prod_, false, op.angles[0], kNoExtra, k);
+            add_term(i, prod_, false, op.angle, kNoExtra, k);
             // Expand only when the parity terms stay Clifford+T (angle / 2^{k-1} a multiple of pi/4:
             // CS, CZ, CCZ): finer parities would need rotation synthesis where the product lowers
             // exactly through Toffolis.
             if (s_.expand_products && k >= 2 && k <= s_.max_expand_literals &&
-                op.angles[0].divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(4))
+                op.angle.divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(4))
                 expand(i, op);
             return;
         }
@@ -442,13 +442,13 @@ private:
             if (op.pair != 0) return;
             Poly sum;
             for (Lit l : op.controls) sum = poly_xor(sum, vals_[l.wire()]);
-            add_term(i, sum, false, op.angles[0], kNoExtra, 1);
+            add_term(i, sum, false, op.angle, kNoExtra, 1);
             return;
         }
         case OpKind::RZ:
             if (op.pair != 0 || !op.controls.empty()) return;
             // RZ(t) = e^{-it/2} Phase(t) with the stored angle t.
-            add_term(i, vals_[op.target], false, op.angles[0], kMinusHalf, 1);
+            add_term(i, vals_[op.target], false, op.angle, kMinusHalf, 1);
             return;
         case OpKind::H:
         case OpKind::Y:
@@ -474,7 +474,7 @@ private:
     /// They go to subterms_, recorded on the op's term (the last one added).
     void expand(uint32_t i, const Op& op) {
         const uint32_t k = uint32_t(op.controls.size());
-        const Angle base = op.angles[0].divided_by(int64_t(1) << (k - 1));
+        const Angle base = op.angle.divided_by(int64_t(1) << (k - 1));
         real_.back().sub_first = uint32_t(subterms_.size());
         for (uint32_t mask = 1; mask < (1u << k); ++mask) {
             Poly sum;
@@ -552,7 +552,7 @@ private:
         }
         WHITTLE_ASSERT(t.subset == 0 && "a one-term op is the term of the op itself");
         if (t.constant) global += g.total;
-        op.angles[0] = a;
+        op.angle = a;
         if (op.kind == OpKind::RZ) global += a.divided_by(2);  // Phase(a) = e^{ia/2} RZ(a)
         put(std::move(op));
     }
@@ -609,13 +609,13 @@ private:
                     for (uint32_t b = 0; b < op.controls.size(); ++b)
                         if (t.subset >> b & 1) p.controls.push_back(Lit::pos(op.controls[b].wire()));
                     p.kind = p.controls.size() == 1 ? OpKind::Phase : OpKind::Parity;
-                    p.angles[0] = a;
+                    p.angle = a;
                     put(std::move(p));
                     continue;
                 }
                 Op p = op;
-                p.angles[0] = a;
-                if (p.kind == OpKind::RZ) global += p.angles[0].divided_by(2);  // Phase(a) = e^{ia/2} RZ(a)
+                p.angle = a;
+                if (p.kind == OpKind::RZ) global += p.angle.divided_by(2);  // Phase(a) = e^{ia/2} RZ(a)
                 put(std::move(p));
             }
         }

@@ -88,7 +88,7 @@ Angle append_header_gate(const HeaderGate& g, const std::vector<Value>& p, const
     };
     auto phase1 = [&](Angle t) {
         Op& op = fresh(OpKind::Phase);
-        op.angles[0] = t;
+        op.angle = t;
         op.controls.push_back(Lit::pos(w[0]));
         return Angle();
     };

@@ -39,7 +39,7 @@ public:
 private:
     Token scan();
     void skip_space_and_comments();
-    ir::SourceLoc here() const { return ir::SourceLoc{file_, line_, col_}; }
+    ir::SourceLoc here() const { return ir::SourceLoc{uint16_t(file_), line_, col_}; }  // ids fit: see SourceManager::add
     void advance();
     void skip_digits();
 

@@ -32,9 +32,9 @@ constexpr const char* kBrokenPass = "test-flip-first-t";
 passes::PassResult flip_first_t(ir::Circuit& c, const passes::PassOptions&) {
     passes::PassResult r;
     for (ir::Op& op : c.ops) {
-        if (op.kind != ir::OpKind::Phase || op.controls.size() != 1 || !(op.angles[0] == ir::Angle::pi_times(1, 4)))
+        if (op.kind != ir::OpKind::Phase || op.controls.size() != 1 || !(op.angle == ir::Angle::pi_times(1, 4)))
             continue;
-        op.angles[0] = -op.angles[0];
+        op.angle = -op.angle;
         r.changed = true;
         break;
     }

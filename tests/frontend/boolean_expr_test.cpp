@@ -87,12 +87,12 @@ ir::Angle phase_of(const ir::Circuit& c, uint64_t state) {
         if (op.kind == ir::OpKind::Phase) {
             bool fire = true;
             for (ir::Lit l : op.controls) fire = fire && lit_true(l, state);
-            if (fire) total += op.angles[0];
+            if (fire) total += op.angle;
         } else {
             REQUIRE(op.kind == ir::OpKind::Parity);
             bool parity = false;
             for (ir::Lit l : op.controls) parity = parity != (((state >> l.wire()) & 1) == 1);
-            if (parity) total += op.angles[0];
+            if (parity) total += op.angle;
         }
     }
     return total;

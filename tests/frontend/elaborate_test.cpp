@@ -53,28 +53,28 @@ TEST_CASE("one-qubit gates and their inverses") {
     ir::Circuit c = load("qubit q\nz q; s q; t q; ~t q; ~s q; sx q; ~sx q; y q; ~rx(pi/3) q\n");
     REQUIRE(c.ops.size() == 9);
     CHECK(c.ops[0].kind == OpKind::Phase);
-    CHECK(c.ops[0].angles[0] == ir::Angle::pi_times(1));
-    CHECK(c.ops[1].angles[0] == ir::Angle::pi_times(1, 2));
-    CHECK(c.ops[2].angles[0] == ir::Angle::pi_times(1, 4));
-    CHECK(c.ops[3].angles[0] == ir::Angle::pi_times(-1, 4));
-    CHECK(c.ops[4].angles[0] == ir::Angle::pi_times(-1, 2));
+    CHECK(c.ops[0].angle == ir::Angle::pi_times(1));
+    CHECK(c.ops[1].angle == ir::Angle::pi_times(1, 2));
+    CHECK(c.ops[2].angle == ir::Angle::pi_times(1, 4));
+    CHECK(c.ops[3].angle == ir::Angle::pi_times(-1, 4));
+    CHECK(c.ops[4].angle == ir::Angle::pi_times(-1, 2));
     CHECK(c.ops[5].kind == OpKind::SX);
     CHECK(c.ops[6].kind == OpKind::SXdg);
     CHECK(c.ops[7].kind == OpKind::Y);
     CHECK(c.ops[8].kind == OpKind::RX);
-    CHECK(c.ops[8].angles[0] == ir::Angle::pi_times(-1, 3));
+    CHECK(c.ops[8].angle == ir::Angle::pi_times(-1, 3));
 }
 
 TEST_CASE("angles: exact multiples of pi stay exact, decimals are radians") {
     ir::Circuit c = load("let k = 3\nqubit q\nrz(pi/4 + pi/4) q\nrz(k*pi/8) q\nrz(0.25) q\nrz(pi*0.5) q\nrz(2*pi/3 - pi/3) q\n");
-    CHECK(c.ops[0].angles[0].is_exact());
-    CHECK(c.ops[0].angles[0] == ir::Angle::pi_times(1, 2));
-    CHECK(c.ops[1].angles[0] == ir::Angle::pi_times(3, 8));
-    CHECK_FALSE(c.ops[2].angles[0].is_exact());
-    CHECK(c.ops[2].angles[0].to_radians() == doctest::Approx(0.25));
-    CHECK_FALSE(c.ops[3].angles[0].is_exact());
-    CHECK(c.ops[4].angles[0] == ir::Angle::pi_times(1, 3));
-    CHECK(c.ops[4].angles[0].is_exact());
+    CHECK(c.ops[0].angle.is_exact());
+    CHECK(c.ops[0].angle == ir::Angle::pi_times(1, 2));
+    CHECK(c.ops[1].angle == ir::Angle::pi_times(3, 8));
+    CHECK_FALSE(c.ops[2].angle.is_exact());
+    CHECK(c.ops[2].angle.to_radians() == doctest::Approx(0.25));
+    CHECK_FALSE(c.ops[3].angle.is_exact());
+    CHECK(c.ops[4].angle == ir::Angle::pi_times(1, 3));
+    CHECK(c.ops[4].angle.is_exact());
 }
 
 TEST_CASE("when: controls accumulate through nesting with their polarity") {
@@ -160,13 +160,13 @@ TEST_CASE("measure and if: scalar bits, conditions, negated conditions, bit regi
                          "if c == 2 { z q[0] }\n");
     REQUIRE(c.cregs.size() == 2);
     CHECK(c.cregs[1].name == "m");
-    CHECK(c.ops[0].cbit == 2);
-    CHECK(c.ops[1].cbit == 1);
-    CHECK(c.ops[2].cond_reg == 1);
-    CHECK(c.ops[2].cond_value == 1);
-    CHECK(c.ops[3].cond_value == 0);
-    CHECK(c.ops[4].cond_reg == 0);
-    CHECK(c.ops[4].cond_value == 2);
+    CHECK(c.ops[0].cbit() == 2);
+    CHECK(c.ops[1].cbit() == 1);
+    CHECK(c.ops[2].cond_reg() == 1);
+    CHECK(c.ops[2].cond_value() == 1);
+    CHECK(c.ops[3].cond_value() == 0);
+    CHECK(c.ops[4].cond_reg() == 0);
+    CHECK(c.ops[4].cond_value() == 2);
 }
 
 TEST_CASE("use: the including folder, then -I folders, then the standard library; cycles refused") {
@@ -181,8 +181,8 @@ TEST_CASE("use: the including folder, then -I folders, then the standard library
     ir::Circuit c = load("use \"arith\"\nuse \"arith.wq\"\nqubit p, q\ninc2(p, q)\n", opts, (dir / "main.wq").string());
     CHECK(c.ops.size() == 1);
     CHECK(c.files.size() == 2);
-    CHECK(c.ops[0].loc.file == 1);
-    CHECK(c.ops[0].loc.line == 1);  // the op comes from the routine body in arith.wq
+    CHECK(uint32_t(c.ops[0].loc.file) == 1);
+    CHECK(uint32_t(c.ops[0].loc.line) == 1);  // the op comes from the routine body in arith.wq
     frontend::SourceManager sm;
     try {
         frontend::load_file((dir / "a.wq").string(), sm);
@@ -233,7 +233,7 @@ TEST_CASE("limits have their own messages") {
 TEST_CASE("source locations travel with ops and file names index Circuit::files") {
     ir::Circuit c = load("qubit a, b\n\n  b ^= a\n");
     REQUIRE(c.ops.size() == 1);
-    CHECK(c.ops[0].loc.line == 3);
-    CHECK(c.ops[0].loc.column == 3);
+    CHECK(uint32_t(c.ops[0].loc.line) == 3);
+    CHECK(uint32_t(c.ops[0].loc.column) == 3);
     CHECK(c.files.at(c.ops[0].loc.file) == "e.wq");
 }

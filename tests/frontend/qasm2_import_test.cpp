@@ -92,13 +92,13 @@ TEST_CASE("controlled gates become the high-level ops they are") {
     CHECK(o[1].target == 0);
     CHECK(o[1].controls == ir::LitVec{Lit::pos(2)});
     CHECK(o[2].kind == OpKind::Phase);
-    CHECK(o[2].angle() == Angle::pi_times(1));
+    CHECK(o[2].angle == Angle::pi_times(1));
     CHECK(o[2].controls == ir::LitVec{Lit::pos(0), Lit::pos(1)});
     CHECK(o[3].kind == OpKind::Phase);
-    CHECK(o[3].angle() == Angle::pi_times(1, 4));
+    CHECK(o[3].angle == Angle::pi_times(1, 4));
     CHECK(o[3].controls == ir::LitVec{Lit::pos(1)});
     CHECK(o[4].kind == OpKind::Phase);
-    CHECK(o[4].angle() == Angle::pi_times(1, 8));
+    CHECK(o[4].angle == Angle::pi_times(1, 8));
     CHECK(o[4].controls.size() == 2);
     CHECK(o[5].kind == OpKind::RZ);
     CHECK(o[5].target == 1);
@@ -112,18 +112,18 @@ TEST_CASE("controlled gates become the high-level ops they are") {
     CHECK(o[8].target2 == 2);
     CHECK(o[8].controls == ir::LitVec{Lit::pos(0)});
     CHECK(o[9].kind == OpKind::Phase);
-    CHECK(o[9].angle() == Angle::pi_times(-1, 2));
+    CHECK(o[9].angle == Angle::pi_times(-1, 2));
     CHECK(o[10].kind == OpKind::SX);
     CHECK(o[11].kind == OpKind::SXdg);
     CHECK(o[12].kind == OpKind::U);
-    CHECK(o[12].angles[0] == Angle::pi_times(1, 2));
-    CHECK(o[12].angles[2] == Angle::pi_times(1));
+    CHECK(o[12].angle == Angle::pi_times(1, 2));
+    CHECK(o[12].lambda() == Angle::pi_times(1));
     CHECK(o[13].kind == OpKind::U);
-    CHECK(o[13].angles[0] == Angle::pi_times(1, 2));
+    CHECK(o[13].angle == Angle::pi_times(1, 2));
     CHECK(o[14].kind == OpKind::XX);
     CHECK(o[14].target2 == 2);
     CHECK(o[15].kind == OpKind::Parity);
-    CHECK(o[15].angle() == Angle::pi_times(1, 4));
+    CHECK(o[15].angle == Angle::pi_times(1, 4));
     CHECK(c.global_phase == Angle::pi_times(-1, 8));  // rzz(t) = e^{-it/2} e^{it(a xor b)}
     CHECK(o[16].kind == OpKind::Swap);
     CHECK(o[16].controls.empty());
@@ -152,27 +152,27 @@ TEST_CASE("angles stay exact when the expression is a rational multiple of pi") 
         "u1(0.25) q[0];\n"
         "u1(1e-1*pi) q[0];\n");
     REQUIRE(c.ops.size() == 12);
-    CHECK(c.ops[0].angle() == Angle::pi_times(1, 4));
-    CHECK(c.ops[1].angle() == Angle::pi_times(-1, 8));
-    CHECK(c.ops[1].angle().is_exact());
-    CHECK(c.ops[2].angle() == Angle::pi_times(3, 4));
-    CHECK(c.ops[3].angle() == Angle::pi_times(3, 4));
-    CHECK(c.ops[3].angle().is_exact());
-    CHECK(c.ops[4].angle() == Angle::pi_times(1, 2));
-    CHECK(c.ops[4].angle().is_exact());
-    CHECK(c.ops[5].angle() == Angle::pi_times(1, 3));
-    CHECK(c.ops[5].angle().is_exact());
-    CHECK(c.ops[6].angle() == Angle::pi_times(1, 4));
-    CHECK(c.ops[6].angle().is_exact());
-    CHECK(c.ops[7].angle() == Angle::pi_times(1));
-    CHECK(c.ops[7].angle().is_exact());
-    CHECK_FALSE(c.ops[8].angle().is_exact());
-    CHECK(c.ops[8].angle().to_radians() == doctest::Approx(std::fmod(M_PI * M_PI, 2 * M_PI)));
-    CHECK_FALSE(c.ops[9].angle().is_exact());
-    CHECK(c.ops[9].angle().to_radians() == doctest::Approx(0.5));
-    CHECK(c.ops[10].angle().to_radians() == doctest::Approx(0.25));
-    CHECK(c.ops[11].angle() == Angle::pi_times(1, 10));
-    CHECK(c.ops[11].angle().is_exact());
+    CHECK(c.ops[0].angle == Angle::pi_times(1, 4));
+    CHECK(c.ops[1].angle == Angle::pi_times(-1, 8));
+    CHECK(c.ops[1].angle.is_exact());
+    CHECK(c.ops[2].angle == Angle::pi_times(3, 4));
+    CHECK(c.ops[3].angle == Angle::pi_times(3, 4));
+    CHECK(c.ops[3].angle.is_exact());
+    CHECK(c.ops[4].angle == Angle::pi_times(1, 2));
+    CHECK(c.ops[4].angle.is_exact());
+    CHECK(c.ops[5].angle == Angle::pi_times(1, 3));
+    CHECK(c.ops[5].angle.is_exact());
+    CHECK(c.ops[6].angle == Angle::pi_times(1, 4));
+    CHECK(c.ops[6].angle.is_exact());
+    CHECK(c.ops[7].angle == Angle::pi_times(1));
+    CHECK(c.ops[7].angle.is_exact());
+    CHECK_FALSE(c.ops[8].angle.is_exact());
+    CHECK(c.ops[8].angle.to_radians() == doctest::Approx(std::fmod(M_PI * M_PI, 2 * M_PI)));
+    CHECK_FALSE(c.ops[9].angle.is_exact());
+    CHECK(c.ops[9].angle.to_radians() == doctest::Approx(0.5));
+    CHECK(c.ops[10].angle.to_radians() == doctest::Approx(0.25));
+    CHECK(c.ops[11].angle == Angle::pi_times(1, 10));
+    CHECK(c.ops[11].angle.is_exact());
 }
 
 TEST_CASE("user gates expand inline with their parameters bound exactly") {
@@ -183,14 +183,14 @@ TEST_CASE("user gates expand inline with their parameters bound exactly") {
         "crane y[0], y[1], y[2];\n");
     REQUIRE(c.ops.size() == 4);
     CHECK(c.ops[0].kind == OpKind::RZ);
-    CHECK(c.ops[0].angle() == Angle::pi_times(3, 8));
+    CHECK(c.ops[0].angle == Angle::pi_times(3, 8));
     CHECK(c.ops[0].target == 0);
     CHECK(c.ops[0].controls == ir::LitVec{Lit::pos(2)});
     CHECK(c.ops[1].kind == OpKind::Phase);
-    CHECK(c.ops[1].angle() == Angle::pi_times(-3, 2));
+    CHECK(c.ops[1].angle == Angle::pi_times(-3, 2));
     CHECK(c.ops[2].kind == OpKind::Barrier);
     CHECK(c.ops[3].kind == OpKind::X);
-    CHECK(c.ops[3].loc.line == 6);  // located at the top-level call
+    CHECK(uint32_t(c.ops[3].loc.line) == 6);  // located at the top-level call
 }
 
 TEST_CASE("controlled rotations keep their sign when the angle is reduced mod 2 pi") {
@@ -267,8 +267,8 @@ TEST_CASE("register-wide broadcasting") {
     CHECK(c.ops[6].target == 3);
     CHECK(c.ops[9].kind == OpKind::Measure);
     CHECK(c.ops[9].target == 3);
-    CHECK(c.ops[9].cbit == 0);
-    CHECK(c.ops[11].cbit == 2);
+    CHECK(c.ops[9].cbit() == 0);
+    CHECK(c.ops[11].cbit() == 2);
     CHECK(c.ops[12].kind == OpKind::Reset);
     CHECK(c.ops[15].kind == OpKind::Barrier);
     CHECK(c.ops[15].controls.size() == 4);
@@ -279,13 +279,13 @@ TEST_CASE("if conditions every op the statement produces") {
                               "if(flag==1) cx q[0],q[1];\nif(c==2) h q;\nif(c==3) measure q[1] -> c[1];\n");
     REQUIRE(c.ops.size() == 5);
     CHECK_FALSE(c.ops[0].is_conditioned());
-    CHECK(c.ops[1].cond_reg == 1);
-    CHECK(c.ops[1].cond_value == 1);
-    CHECK(c.ops[2].cond_reg == 0);
-    CHECK(c.ops[2].cond_value == 2);
-    CHECK(c.ops[3].cond_value == 2);
+    CHECK(c.ops[1].cond_reg() == 1);
+    CHECK(c.ops[1].cond_value() == 1);
+    CHECK(c.ops[2].cond_reg() == 0);
+    CHECK(c.ops[2].cond_value() == 2);
+    CHECK(c.ops[3].cond_value() == 2);
     CHECK(c.ops[4].kind == OpKind::Measure);
-    CHECK(c.ops[4].cond_value == 3);
+    CHECK(c.ops[4].cond_value() == 3);
 }
 
 TEST_CASE("comments, CRLF line ends, a byte order mark and the builtins without the header") {
@@ -294,7 +294,7 @@ TEST_CASE("comments, CRLF line ends, a byte order mark and the builtins without 
     REQUIRE(c.ops.size() == 2);
     CHECK(c.ops[0].kind == OpKind::U);
     CHECK(c.ops[1].kind == OpKind::X);
-    CHECK(c.ops[1].loc.line == 6);
+    CHECK(uint32_t(c.ops[1].loc.line) == 6);
 }
 
 TEST_CASE("an included file is read from the including file's folder") {
@@ -313,6 +313,28 @@ TEST_CASE("an included file is read from the including file's folder") {
     frontend::SourceManager sm2;
     CHECK_THROWS_WITH_AS(frontend::load_file((dir / "cycle.qasm").string(), sm2), doctest::Contains("include cycle"),
                          UserError);
+    fs::remove_all(dir);
+}
+
+TEST_CASE("more source files than a location can name is a located error, not a wrapped file index") {
+    // SourceLoc keeps a 16-bit file index (ir/source_loc.h); the main file is index 0.
+    namespace fs = std::filesystem;
+    fs::path dir = fs::temp_directory_path() / fmt::format("whittle_qasm_many_inc_{}", ::getpid());
+    fs::create_directories(dir);
+    std::ofstream(dir / "empty.inc") << "// nothing\n";
+    {
+        std::ofstream main(dir / "main.qasm");
+        main << "OPENQASM 2.0;\n";
+        for (uint32_t i = 0; i < ir::kMaxSourceFiles; ++i) main << "include \"empty.inc\";\n";
+    }
+    frontend::SourceManager sm;
+    try {
+        frontend::load_file((dir / "main.qasm").string(), sm);
+        FAIL("no error");
+    } catch (const UserError& e) {
+        CHECK(std::string(e.what()).find("more than 65536 source files") != std::string::npos);
+        CHECK(uint32_t(e.loc().line) == 1 + ir::kMaxSourceFiles);  // the include that would be file 65536
+    }
     fs::remove_all(dir);
 }
 

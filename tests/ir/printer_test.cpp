@@ -121,7 +121,7 @@ TEST_CASE("inexact angles keep every bit through the printed 17 digits") {
         c.ops.push_back(ir::Op::one(ir::OpKind::RZ, 0, ir::Angle::radians(std::uniform_real_distribution<double>(-20, 20)(rng))));
     ir::Circuit back = parse(ir::print_wq(c));
     REQUIRE(back.ops.size() == c.ops.size());
-    for (size_t i = 0; i < c.ops.size(); ++i) CHECK(back.ops[i].angles[0].to_radians() == c.ops[i].angles[0].to_radians());
+    for (size_t i = 0; i < c.ops.size(); ++i) CHECK(back.ops[i].angle.to_radians() == c.ops[i].angle.to_radians());
 }
 
 TEST_CASE("registers named like keywords, gates or pi round-trip from OpenQASM through .wq") {

@@ -64,12 +64,10 @@ TEST_CASE("measure and feed-forward: measured erase of a clean AND (Gidney 2018,
     c.ops = {Op::one(OpKind::H, 0), Op::one(OpKind::H, 1), Op::x(2, {Lit::pos(0), Lit::pos(1)}),
              Op::one(OpKind::H, 2), Op::measure(2, 0)};
     Op fix = Op::phase(Angle::pi_times(1), {Lit::pos(0), Lit::pos(1)});
-    fix.cond_reg = 0;
-    fix.cond_value = 1;
+    fix.set_condition(0, 1);
     c.ops.push_back(fix);
     Op fixw = Op::x(2);
-    fixw.cond_reg = 0;
-    fixw.cond_value = 1;
+    fixw.set_condition(0, 1);
     c.ops.push_back(fixw);
     for (uint64_t seed = 0; seed < 8; ++seed) {
         std::mt19937_64 rng(seed);

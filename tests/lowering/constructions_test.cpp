@@ -188,8 +188,8 @@ TEST_CASE("multi-controlled phases, controlled one-qubit gates and controlled sw
                 ctl[0] = ir::Lit::neg(0);
                 ir::Op op = ir::Op::one(k, n, ir::Angle::radians(0.7), ctl);
                 if (k == ir::OpKind::U) {
-                    op.angles[1] = ir::Angle::radians(-1.1);
-                    op.angles[2] = ir::Angle::pi_times(1, 3);
+                    op.set_phi(ir::Angle::radians(-1.1));
+                    op.set_lambda(ir::Angle::pi_times(1, 3));
                 }
                 c.ops.push_back(op);
                 ir::Circuit ref = c;

@@ -83,7 +83,7 @@ Op random_op(std::mt19937& rng, uint32_t n) {
     case OpKind::XX: return Op::two(k, wires[0], wires[1], random_angle(rng));
     case OpKind::R: {
         Op op = Op::one(OpKind::R, wires[0], random_angle(rng));
-        op.angles[1] = random_angle(rng);
+        op.set_phi(random_angle(rng));
         return op;
     }
     case OpKind::U: {
@@ -135,8 +135,8 @@ TEST_CASE("round trip with measurements and feed-forward, by simulation of each 
             }
             Op op = random_op(rng, c.num_qubits());
             if (r == 1 && op.kind != OpKind::Barrier) {
-                op.cond_reg = int32_t(rng() % 2);
-                op.cond_value = rng() % (op.cond_reg == 0 ? 2 : 4);
+                const int32_t reg = int32_t(rng() % 2);
+                op.set_condition(reg, rng() % (reg == 0 ? 2 : 4));
             }
             c.ops.push_back(op);
         }
@@ -211,7 +211,7 @@ TEST_CASE("iswap and r get one definition each, only when used") {
     c.ops.push_back(Op::two(OpKind::ISwap, 0, 3));
     c.ops.push_back(Op::two(OpKind::ISwap, 1, 4));
     Op r = Op::one(OpKind::R, 2, Angle::pi_times(1, 3));
-    r.angles[1] = Angle::pi_times(1, 5);
+    r.set_phi(Angle::pi_times(1, 5));
     c.ops.push_back(r);
     c.ops.push_back(Op::two(OpKind::XX, 0, 1, Angle::pi_times(1, 2)));
     std::string t = lowering::emit_qasm2(c);
@@ -261,12 +261,10 @@ TEST_CASE("measurement, reset, barrier and conditions") {
     c.add_creg("out", 2);
     c.ops.push_back(Op::measure(2, 0));
     Op x = Op::x(0);
-    x.cond_reg = int32_t(m);
-    x.cond_value = 1;
+    x.set_condition(int32_t(m), 1);
     c.ops.push_back(x);
     Op cz = Op::phase(Angle::pi_times(1), {Lit::neg(0), Lit::pos(1)});
-    cz.cond_reg = 1;
-    cz.cond_value = 2;
+    cz.set_condition(1, 2);
     c.ops.push_back(cz);
     c.ops.push_back(Op::measure(4, 2));
     c.ops.push_back(Op::reset(4));
@@ -275,8 +273,7 @@ TEST_CASE("measurement, reset, barrier and conditions") {
     bar.controls = {Lit::pos(0), Lit::pos(3)};
     c.ops.push_back(bar);
     Op cond_bar = bar;
-    cond_bar.cond_reg = 0;
-    cond_bar.cond_value = 1;
+    cond_bar.set_condition(0, 1);
     c.ops.push_back(cond_bar);
     std::string t2 = lowering::emit_qasm2(c);
     CHECK(count(t2, "barrier a[0],b[0];\n") == 2);  // a conditioned barrier is written plainly
@@ -287,10 +284,10 @@ TEST_CASE("measurement, reset, barrier and conditions") {
     CHECK(contains(t2, "measure b[1] -> out[1];\nreset b[1];\nbarrier a[0],b[0];\n"));
     ir::Circuit back = reimport(t2);
     REQUIRE(back.ops.size() == 9);
-    CHECK(back.ops[1].cond_reg == 0);
-    CHECK(back.ops[1].cond_value == 1);
-    CHECK(back.ops[3].cond_value == 2);
-    CHECK(back.ops[5].cbit == 2);
+    CHECK(back.ops[1].cond_reg() == 0);
+    CHECK(back.ops[1].cond_value() == 1);
+    CHECK(back.ops[3].cond_value() == 2);
+    CHECK(back.ops[5].cbit() == 2);
 
     std::string t3 = lowering::emit_qasm3(c);
     CHECK(contains(t3, "OPENQASM 3.0;\ninclude \"stdgates.inc\";\n"));

@@ -129,8 +129,8 @@ inline ir::Circuit random_high_level(std::mt19937_64& rng, uint32_t data, uint32
             const ir::OpKind kk = exact ? (rng() & 1 ? ir::OpKind::H : ir::OpKind::Y) : one_kinds[rng() % 7];
             ir::Op op = ir::Op::one(kk, w[0], angle(), lits(w, 1));
             if (op.kind == ir::OpKind::U) {
-                op.angles[1] = angle();
-                op.angles[2] = angle();
+                op.set_phi(angle());
+                op.set_lambda(angle());
             }
             c.ops.push_back(op);
             break;
@@ -139,14 +139,14 @@ inline ir::Circuit random_high_level(std::mt19937_64& rng, uint32_t data, uint32
         case 7: {
             ir::Op op = ir::Op::one(one_kinds[rng() % 7], w[0], angle());
             if (op.kind == ir::OpKind::U) {
-                op.angles[1] = angle();
-                op.angles[2] = angle();
+                op.set_phi(angle());
+                op.set_lambda(angle());
             }
             c.ops.push_back(op);
             break;
         }
         case 8: c.ops.push_back(ir::Op::phase(angle(), {ir::Lit::make(w[0], rng() & 1)})); break;
-        case 9: c.ops.push_back(ir::Op::one(ir::OpKind::R, w[0], angle())); c.ops.back().angles[1] = angle(); break;
+        case 9: c.ops.push_back(ir::Op::one(ir::OpKind::R, w[0], angle())); c.ops.back().set_phi(angle()); break;
         case 10: c.ops.push_back(ir::Op::swap(w[0], w[1])); break;
         case 11: c.ops.push_back(ir::Op::two(ir::OpKind::ISwap, w[0], w[1])); break;
         default: c.ops.push_back(ir::Op::two(ir::OpKind::XX, w[0], w[1], angle())); break;

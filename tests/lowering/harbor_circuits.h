@@ -37,8 +37,7 @@ inline ir::Circuit crane_check() {
     c.ops.push_back(Op::x(d, {Lit::pos(flag)}));
     c.ops.push_back(Op::measure(w, int32_t(c.cregs[m].first)));
     Op fix = Op::phase(Angle::pi_times(1), {Lit::pos(crane), Lit::pos(crane + 1)});
-    fix.cond_reg = int32_t(m);
-    fix.cond_value = 1;
+    fix.set_condition(int32_t(m), 1);
     c.ops.push_back(fix);
     Op barrier = Op::parity(Angle(), {crane, crane + 1, crane + 2});
     barrier.kind = OpKind::Barrier;

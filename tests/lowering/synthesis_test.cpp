@@ -304,5 +304,5 @@ TEST_CASE("fuse-1q: runs fuse into at most the basis' Euler length; clifford+t s
     CHECK(passes::fuse_1q(t, o).changed);
     CHECK(ir::count_resources(t).t_count <= 2);
     CHECK(ir::distance_up_to_phase(ir::circuit_unitary(tref), ir::circuit_unitary(t)) < 1e-12);
-    for (const ir::Op& op : t.ops) CHECK(op.angles[0].is_exact());
+    for (const ir::Op& op : t.ops) CHECK(op.angle.is_exact());
 }

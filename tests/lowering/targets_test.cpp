@@ -133,7 +133,7 @@ TEST_CASE("exact angles stay exact: T, S and pi/4 rotations come out as Clifford
         ir::Circuit d = ref;
         compile(d, for_target(t));
         for (const ir::Op& op : d.ops)
-            for (const ir::Angle& a : op.angles) {
+            for (const ir::Angle& a : {op.angle, op.phi(), op.lambda()}) {
                 CHECK(a.is_exact());
                 CHECK((a.is_zero() || std::fabs(std::remainder(a.to_radians(), 6.283185307179586)) > 1e-9));
             }

@@ -31,7 +31,7 @@ TEST_CASE("T T = S (phases on one wire add)") {
     c.ops = {t(0), t(0)};
     c = run(c);
     REQUIRE(c.ops.size() == 1);
-    CHECK(c.ops[0].angles[0] == Angle::pi_times(1, 2));
+    CHECK(c.ops[0].angle == Angle::pi_times(1, 2));
 }
 
 TEST_CASE("H H = I and CNOT CNOT = I across commuting ops") {
@@ -97,7 +97,7 @@ TEST_CASE("rotations about one axis add: RX(pi/3) RX(pi/6) = RX(pi/2); a wrap pa
     c.ops = {Op::one(OpKind::RX, 0, Angle::pi_times(1, 3)), Op::one(OpKind::RX, 0, Angle::pi_times(1, 6))};
     c = run(c);
     REQUIRE(c.ops.size() == 1);
-    CHECK(c.ops[0].angles[0] == Angle::pi_times(1, 2));
+    CHECK(c.ops[0].angle == Angle::pi_times(1, 2));
     c.ops = {Op::one(OpKind::RY, 0, Angle::pi_times(3, 2)), Op::one(OpKind::RY, 0, Angle::pi_times(1, 2))};
     c = run(c);
     CHECK(c.ops.empty());

@@ -188,7 +188,7 @@ TEST_CASE("phase engines: CCZ as seven parity phases (4abc = a+b+c-(a^b)-(a^c)-(
     r = check_equivalence(ccz(40), parity_form(40, -1));  // CCZ^dagger = CCZ, but the signs now give -4abc + ...
     CHECK(r.verdict == Verdict::Equivalent);
     Circuit off = parity_form(40, 1);
-    off.ops[3].angles[0] = Angle::pi_times(1, 4);  // one sign wrong
+    off.ops[3].angle = Angle::pi_times(1, 4);  // one sign wrong
     r = check_equivalence(ccz(40), off);
     CHECK(r.verdict == Verdict::NotEquivalent);
     CHECK(r.engine == "phase-polynomial");
@@ -274,8 +274,7 @@ TEST_CASE("temporary logical-AND (4 T) and measured erase equal a Toffoli pair (
     gidney.ops.push_back(h(w));
     gidney.ops.push_back(Op::measure(w, 0));
     Op fix = cz(0, 1);
-    fix.cond_reg = 0;
-    fix.cond_value = 1;
+    fix.set_condition(0, 1);
     gidney.ops.push_back(fix);
     EquivResult r = check_equivalence(pair, gidney);
     CHECK(r.verdict == Verdict::Equivalent);
@@ -394,10 +393,10 @@ TEST_CASE("conditioned rotations, controlled or not, keep their meaning through 
         // is not a multiple of pi, on an op that leaves the measured crane (wire 0) alone.
         for (Op& op : out.ops) {
             const std::vector<uint32_t> ws = op.wires();
-            if (!op.is_conditioned() || op.kind == OpKind::Measure || op.angles[0].is_zero() ||
-                op.angles[0] == Angle::pi_times(1) || std::find(ws.begin(), ws.end(), 0u) != ws.end())
+            if (!op.is_conditioned() || op.kind == OpKind::Measure || op.angle.is_zero() ||
+                op.angle == Angle::pi_times(1) || std::find(ws.begin(), ws.end(), 0u) != ws.end())
                 continue;
-            op.angles[0] = -op.angles[0];
+            op.angle = -op.angle;
             break;
         }
         CHECK(check_equivalence(source, out).verdict == Verdict::NotEquivalent);

@@ -29,10 +29,10 @@ Circuit run(Circuit c, bool expect_change = true) {
 int64_t non_clifford_terms(const Circuit& c) {
     int64_t n = 0;
     for (const Op& op : c.ops) {
-        if (op.kind == OpKind::Parity && !op.angles[0].is_multiple_of_pi_over(2)) ++n;
+        if (op.kind == OpKind::Parity && !op.angle.is_multiple_of_pi_over(2)) ++n;
         if (op.kind == OpKind::Phase) {
             const size_t k = op.controls.size();
-            if (!op.angles[0].divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(2)) n += (int64_t(1) << k) - 1;
+            if (!op.angle.divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(2)) n += (int64_t(1) << k) - 1;
         }
     }
     return n;
@@ -46,7 +46,7 @@ TEST_CASE("terms on equal parities merge across CNOTs where cancel cannot reach 
     c.ops = {t(1), cx(0, 1), t(1), cx(1, 0), t(0)};
     c = run(c);
     REQUIRE(c.ops.size() == 4);
-    CHECK(c.ops[0].angles[0] == Angle::pi_times(1, 2));
+    CHECK(c.ops[0].angle == Angle::pi_times(1, 2));
     CHECK(count_resources(c).t_count == 1);
 }
 
@@ -132,7 +132,7 @@ TEST_CASE("the size cap on products: a product over max_terms monomials is not a
     CHECK_FALSE(fold_with_cap(capped, 2));
     CHECK(fold_with_cap(c, 64));
     REQUIRE(c.ops.size() == 4);
-    CHECK(c.ops[2].angles[0] == Angle::pi_times(1));
+    CHECK(c.ops[2].angle == Angle::pi_times(1));
 }
 
 TEST_CASE("fold-phases on random circuits (state vector, global phase included)") {

@@ -103,7 +103,7 @@ TEST_CASE("not a kickback pair: no controls on A, a phase other than pi, A contr
     check_no_kick(cx(0, 1), Op::one(OpKind::RX, 1, Angle::pi_times(1, 3)));
     Op extra;
     Op fence = cx(0, 1);
-    fence.cond_reg = 0;
+    fence.set_condition(0, 0);
     CHECK_FALSE(passes::kickback_move(fence, cx(1, 2), extra));
 }
 

@@ -27,7 +27,7 @@ using Mat2 = Eigen::Matrix2cd;
 
 inline Mat2 reference_one_qubit_matrix(const ir::Op& op) {
     const Cplx i(0, 1);
-    const double t = op.angles[0].to_radians();
+    const double t = op.angle.to_radians();
     const double c = std::cos(t / 2), s = std::sin(t / 2);
     Mat2 m;
     switch (op.kind) {
@@ -40,12 +40,12 @@ inline Mat2 reference_one_qubit_matrix(const ir::Op& op) {
     case ir::OpKind::RY: m << c, -s, s, c; return m;
     case ir::OpKind::RZ: m << std::exp(-i * (t / 2)), 0, 0, std::exp(i * (t / 2)); return m;
     case ir::OpKind::U: {
-        const double p = op.angles[1].to_radians(), l = op.angles[2].to_radians();
+        const double p = op.phi().to_radians(), l = op.lambda().to_radians();
         m << c, -std::exp(i * l) * s, std::exp(i * p) * s, std::exp(i * (p + l)) * c;
         return m;
     }
     case ir::OpKind::R: {
-        const double p = op.angles[1].to_radians();
+        const double p = op.phi().to_radians();
         m << c, -i * std::exp(-i * p) * s, -i * std::exp(i * p) * s, c;
         return m;
     }
@@ -69,13 +69,13 @@ inline void apply_op(const ir::Op& op, Eigen::VectorXcd& v) {
     case ir::OpKind::Measure:
     case ir::OpKind::Reset: throw std::logic_error("dense_unitary: measurement or reset");
     case ir::OpKind::Phase: {
-        const Cplx ph = std::exp(i * op.angles[0].to_radians());
+        const Cplx ph = std::exp(i * op.angle.to_radians());
         for (size_t k = 0; k < dim; ++k)
             if (lits_hold(k)) v[Eigen::Index(k)] *= ph;
         return;
     }
     case ir::OpKind::Parity: {
-        const Cplx ph = std::exp(i * op.angles[0].to_radians());
+        const Cplx ph = std::exp(i * op.angle.to_radians());
         for (size_t k = 0; k < dim; ++k) {
             unsigned p = 0;
             for (ir::Lit l : op.controls) p ^= bit(k, l.wire());
@@ -97,7 +97,7 @@ inline void apply_op(const ir::Op& op, Eigen::VectorXcd& v) {
         return;
     }
     case ir::OpKind::XX: {
-        const double t = op.angles[0].to_radians();
+        const double t = op.angle.to_radians();
         const Cplx c = std::cos(t / 2), s = -i * std::sin(t / 2);
         const size_t flip = (size_t(1) << op.target) | (size_t(1) << op.target2);
         Eigen::VectorXcd w = v;

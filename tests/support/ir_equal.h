@@ -44,9 +44,9 @@ inline std::string ir_difference(const ir::Circuit& x, const ir::Circuit& y) {
     for (size_t i = 0; i < x.ops.size(); ++i) {
         const Op &a = x.ops[i], &b = y.ops[i];
         bool same = a.kind == b.kind && a.half == b.half && a.target == b.target && a.target2 == b.target2 &&
-                    a.controls == b.controls && a.pair == b.pair && a.cbit == b.cbit && a.cond_reg == b.cond_reg &&
-                    a.cond_value == b.cond_value;
-        for (int k = 0; k < 3; ++k) same = same && same_angle(a.angles[k], b.angles[k]);
+                    a.controls == b.controls && a.pair == b.pair && a.cbit() == b.cbit() && a.cond_reg() == b.cond_reg() &&
+                    a.cond_value() == b.cond_value() && same_angle(a.angle, b.angle) && same_angle(a.phi(), b.phi()) &&
+                    same_angle(a.lambda(), b.lambda());
         if (!same) return fmt::format("op {}: '{}' vs '{}'", i, print_op(x, a), print_op(y, b));
     }
     return "";

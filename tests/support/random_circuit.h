@@ -107,7 +107,7 @@ inline ir::Circuit random_circuit(std::mt19937_64& rng, const RandomCircuitOptio
         case OpKind::XX: op = Op::two(OpKind::XX, ws[0], ws[1], ang()); break;
         case OpKind::R:
             op = Op::one(OpKind::R, ws[0], ang());
-            op.angles[1] = ang();
+            op.set_phi(ang());
             break;
         case OpKind::Measure: op = Op::measure(ws[0], int32_t(uniform(0, c.num_cbits - 1))); break;
         case OpKind::Reset: op = Op::reset(ws[0]); break;
@@ -120,11 +120,11 @@ inline ir::Circuit random_circuit(std::mt19937_64& rng, const RandomCircuitOptio
         // Angles the kind does not use stay exactly 0 (the parser leaves them so).
         if (k == OpKind::X || k == OpKind::H || k == OpKind::Y || k == OpKind::SX || k == OpKind::SXdg ||
             k == OpKind::Swap || k == OpKind::ISwap || k == OpKind::Measure || k == OpKind::Reset || k == OpKind::Barrier)
-            op.angles[0] = Angle();
+            op.angle = Angle();
         if (o.measurement && coin(0.15)) {
-            op.cond_reg = int32_t(uniform(0, uint32_t(c.cregs.size() - 1)));
-            const ClassicalRegister& r = c.cregs[size_t(op.cond_reg)];
-            op.cond_value = uniform(0, (1u << r.size) - 1);
+            const int32_t reg = int32_t(uniform(0, uint32_t(c.cregs.size() - 1)));
+            const ClassicalRegister& r = c.cregs[size_t(reg)];
+            op.set_condition(reg, uniform(0, (1u << r.size) - 1));
         }
         if (o.pairs) {
             if (open_pair == 0 && coin(0.1)) open_pair = c.new_pair_id();

@@ -33,7 +33,7 @@ inline void seven_t_toffoli(std::vector<ir::Op>& out, uint32_t a, uint32_t b, ui
     std::vector<ir::Op> g = {h(c),         cx(b, c),  t_gate(c, true), cx(a, c), t_gate(c),       cx(b, c),
                              t_gate(c, true), cx(a, c), t_gate(b),     t_gate(c), h(c),           cx(a, b),
                              t_gate(a),    t_gate(b, true), cx(a, b)};
-    if (flip >= 0) g[size_t(flip)].angles[0] = -g[size_t(flip)].angles[0];
+    if (flip >= 0) g[size_t(flip)].angle = -g[size_t(flip)].angle;
     out.insert(out.end(), g.begin(), g.end());
 }
 
