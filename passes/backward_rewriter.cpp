@@ -3,7 +3,6 @@
 
 #include <algorithm>
 #include <optional>
-#include <unordered_map>
 #include <unordered_set>
 
 #include "ir/error.h"
@@ -17,6 +16,37 @@ using ir::Op;
 namespace {
 
 constexpr uint32_t kNone = 0xffffffffu;
+constexpr uint16_t kManyWires = 0xffff;
+
+/// One entry of a wire's list: the position of an op placed on the wire and what a walk needs to
+/// know of that op to pass it. The lists are read back to front and stay in cache, while the ops
+/// themselves lie far apart at scale (1000 wires: ~1000 ops between neighbours on a wire), so a
+/// step that reads only the entry costs no cache miss.
+struct WireEntry {
+    uint32_t pos;
+    WireRole role;    ///< the op's role on this wire
+    ir::OpKind kind;
+    uint16_t wires;   ///< the op's wire count (kManyWires when it does not fit)
+};
+
+}  // namespace
+
+struct RewriteBuffers::Lists {
+    std::vector<std::vector<WireEntry>> on_wire;  ///< by wire: entries in placement order
+    std::vector<uint8_t> state;                   ///< by position: kLive, kWall, kStale
+};
+
+RewriteBuffers::RewriteBuffers() : lists(std::make_unique<Lists>()) {}
+RewriteBuffers::~RewriteBuffers() = default;
+
+namespace {
+
+/// Per-position state bits.
+enum : uint8_t {
+    kLive = 1,   ///< not removed by a combination
+    kWall = 2,   ///< a kickback op follows it, not in the wire lists' order: walks stop here
+    kStale = 4,  ///< a combine rule changed the op: its wire entries may no longer describe it
+};
 
 /// A kickback move made by the walk in progress: `extra` goes right after the op placed at
 /// position `slot` (in reading order) if it pays.
@@ -27,50 +57,26 @@ struct PendingKick {
 
 /// The ops are rewritten where they lie in Circuit::ops: a walk reads earlier ops there, a combine
 /// rule changes the earlier op in place, and ops that are gone are only marked dead until the final
-/// compaction. Nothing is copied when no rule fires (only rules that fire change an op), and no
-/// second vector of ops is built when one does, unless a kickback added an op. Positions in the
-/// per-wire lists are placement positions: p-th op placed, which is op p, or op n-1-p when the ops
-/// are read right to left.
+/// compaction (kickback ops are inserted by the same compaction, back to front). Nothing is copied
+/// when no rule fires, and the mover itself is copied only when an uncontrolled X rewrites it.
+/// Positions in the per-wire lists are placement positions: p-th op placed, which is op p, or op
+/// n-1-p when the ops are read right to left.
 class Rewriter {
 public:
-    Rewriter(ir::Circuit& c, const CombineRule& combine, PassResult& result, RewriteLimits limits, bool right_to_left)
-        : c_(c), combine_(combine), result_(result), limits_(limits), right_to_left_(right_to_left),
-          n_(uint32_t(c.ops.size())), on_wire_(c.num_qubits()) {}
+    Rewriter(ir::Circuit& c, const CombineRule& rule, PassResult& result, RewriteBuffers::Lists& lists,
+             RewriteLimits limits, bool right_to_left)
+        : c_(c), rule_(rule), result_(result), limits_(limits), right_to_left_(right_to_left),
+          n_(uint32_t(c.ops.size())), on_wire_(lists.on_wire), state_(lists.state) {
+        // The lists are cleared, not freed: a later sweep reuses the capacity an earlier one grew.
+        on_wire_.resize(c.num_qubits());
+        for (std::vector<WireEntry>& list : on_wire_) list.clear();
+    }
 
     bool run() {
-        live_.assign(n_, 1);
+        state_.assign(n_, kLive);
         for (uint32_t p = 0; p < n_; ++p) place(p);
         if (!fired_) return false;
-        for (uint32_t i = 0; i < n_; ++i) {
-            if (!live_[i]) continue;
-            Op& op = c_.ops[i];
-            if (op.pair != 0 && broken_.count(op.pair)) {
-                op.pair = 0;
-                op.half = ir::PairHalf::None;
-            }
-        }
-        if (kicked_.empty()) {
-            // Compaction in op order: for a right-to-left reading this is the rewritten sequence read back.
-            size_t k = 0;
-            for (uint32_t i = 0; i < n_; ++i) {
-                if (!live_[i]) continue;
-                if (k != i) c_.ops[k] = std::move(c_.ops[i]);
-                ++k;
-            }
-            c_.ops.erase(c_.ops.begin() + std::ptrdiff_t(k), c_.ops.end());
-        } else {
-            // A kickback op follows its op in reading order: after it left to right, before it
-            // right to left.
-            std::vector<Op> out;
-            out.reserve(n_ + kicked_.size());
-            for (uint32_t i = 0; i < n_; ++i) {
-                auto it = live_[i] ? kicked_.find(position_of(i)) : kicked_.end();
-                if (it != kicked_.end() && right_to_left_) out.push_back(std::move(it->second));
-                if (live_[i]) out.push_back(std::move(c_.ops[i]));
-                if (it != kicked_.end() && !right_to_left_) out.push_back(std::move(it->second));
-            }
-            c_.ops = std::move(out);
-        }
+        compact_and_insert_kicks();
         c_.global_phase += global_;
         return true;
     }
@@ -78,18 +84,62 @@ public:
 private:
     uint32_t index_of(uint32_t p) const { return right_to_left_ ? n_ - 1 - p : p; }
     uint32_t position_of(uint32_t i) const { return right_to_left_ ? n_ - 1 - i : i; }
+    bool live(uint32_t p) const { return state_[p] & kLive; }
+
+    /// Drops dead ops in op order (for a right-to-left reading this is the rewritten sequence read
+    /// back) and clears the broken pair ids, then opens room for the kickback ops from the back: a
+    /// kickback op follows its op in reading order, i.e. after it left to right and before it right
+    /// to left. One pass over the ops and no second vector.
+    void compact_and_insert_kicks() {
+        std::sort(kicked_.begin(), kicked_.end(),
+                  [&](const PendingKick& a, const PendingKick& b) { return index_of(a.slot) < index_of(b.slot); });
+        std::vector<std::pair<size_t, Op*>> inserts;  // (compacted index of the kicked-from op, kickback op)
+        size_t k = 0, q = 0;
+        for (uint32_t i = 0; i < n_; ++i) {
+            if (!live(position_of(i))) continue;
+            Op& op = c_.ops[i];
+            if (op.pair != 0 && broken_.count(op.pair)) {
+                op.pair = 0;
+                op.half = ir::PairHalf::None;
+            }
+            for (; q < kicked_.size() && index_of(kicked_[q].slot) <= i; ++q)
+                if (index_of(kicked_[q].slot) == i) inserts.emplace_back(k, &kicked_[q].extra);
+            if (k != i) c_.ops[k] = std::move(c_.ops[i]);
+            ++k;
+        }
+        c_.ops.resize(k + inserts.size());
+        size_t dst = c_.ops.size(), src = k, left = inserts.size();
+        while (left > 0) {  // dst == src + left at the top: the ops below src are in place once left is 0
+            --src;
+            const bool here = inserts[left - 1].first == src;
+            if (here && !right_to_left_) c_.ops[--dst] = std::move(*inserts[--left].second);
+            if (--dst != src) c_.ops[dst] = std::move(c_.ops[src]);
+            if (here && right_to_left_) c_.ops[--dst] = std::move(*inserts[--left].second);
+        }
+    }
+
+    void push_entry(uint32_t p, const Op& op, uint32_t w, uint16_t count) {
+        on_wire_[w].push_back(WireEntry{p, wire_role(op, w), op.kind, count});
+    }
+
+    static uint16_t wire_count(const Op& op) {
+        const size_t n = (op.target != ir::kNoWire) + (op.target2 != ir::kNoWire) + op.controls.size();
+        return uint16_t(std::min<size_t>(n, kManyWires));
+    }
 
     void append(uint32_t p, const Op& op) {
         if (is_fence(op)) fence_ = p;
-        wires_.clear();
-        op.wires(wires_);
-        for (uint32_t w : wires_) on_wire_[w].push_back(p);
+        const uint16_t count = wire_count(op);
+        if (op.target != ir::kNoWire) push_entry(p, op, op.target, count);
+        if (op.target2 != ir::kNoWire) push_entry(p, op, op.target2, count);
+        for (ir::Lit l : op.controls) push_entry(p, op, l.wire(), count);
     }
 
-    void add_wire(uint32_t p, uint32_t w) {
-        std::vector<uint32_t>& v = on_wire_[w];
-        auto it = std::lower_bound(v.begin(), v.end(), p);
-        if (it == v.end() || *it != p) v.insert(it, p);
+    /// Adds position p to wire w's list (p is below the list's end: the entry goes in sorted).
+    void add_wire(uint32_t p, uint32_t w, const Op& op) {
+        std::vector<WireEntry>& v = on_wire_[w];
+        auto it = std::lower_bound(v.begin(), v.end(), p, [](const WireEntry& e, uint32_t q) { return e.pos < q; });
+        if (it == v.end() || it->pos != p) v.insert(it, WireEntry{p, wire_role(op, w), op.kind, wire_count(op)});
     }
 
     void note_pairs(const Op& a, const Op& b, Combined how) {
@@ -105,72 +155,146 @@ private:
             append(p, op);
             return;
         }
-        // One cursor per wire of the mover into that wire's index list, walked from the back. The
-        // two lists are members reused by every walk (no allocation per op).
+        // One cursor per wire of the mover into that wire's list, walked from the back, and the
+        // mover's role on that wire (the walk's rewrites flip polarities and negate angles, which
+        // keeps every role). The lists are members reused by every walk (no allocation per op).
         std::vector<uint32_t>& ws = mover_wires_;
-        std::vector<size_t>& cur = cursors_;
         ws.clear();
         op.wires(ws);
-        cur.resize(ws.size());
-        for (size_t i = 0; i < ws.size(); ++i) cur[i] = on_wire_[ws[i]].size();
-        Op moved = op;
+        cursors_.resize(ws.size());
+        roles_.resize(ws.size());
+        for (size_t i = 0; i < ws.size(); ++i) {
+            cursors_[i] = on_wire_[ws[i]].size();
+            roles_[i] = wire_role(op, ws[i]);
+        }
+        const OpShape mover_shape{op.kind, wire_count(op)};
+        const Op* mover = &op;  // points at moved_ once a rewrite made a copy
         ir::Angle g;
         std::optional<PendingKick> kick;
         uint32_t visited = 0, steps = 0;
         while (visited < limits_.window && steps < 4 * limits_.window) {
             uint32_t j = kNone;
             for (size_t i = 0; i < ws.size(); ++i)
-                if (cur[i] > 0) {
-                    uint32_t cand = on_wire_[ws[i]][cur[i] - 1];
+                if (cursors_[i] > 0) {
+                    const uint32_t cand = on_wire_[ws[i]][cursors_[i] - 1].pos;
                     if (j == kNone || cand > j) j = cand;
                 }
             if (j == kNone || (fence_ != kNone && j <= fence_)) break;
-            for (size_t i = 0; i < ws.size(); ++i)
-                while (cur[i] > 0 && on_wire_[ws[i]][cur[i] - 1] >= j) --cur[i];
+            // Step every cursor at j over it; `agree`: on every shared wire both ops have one role
+            // (not Other), so they commute (commutation.h) unless the rule combines them. Without
+            // agreement they can still commute when they are orthogonal (a shared wire both read
+            // as a control) or the earlier op is an uncontrolled X, or cross by a kickback (an X
+            // target meets a control).
+            uint32_t shared = 0;
+            bool agree = true, both_z = false, earlier_x_meets_z = false, earlier_z_meets_x = false;
+            const WireEntry* entry = nullptr;
+            uint32_t shared_wire = 0;
+            for (size_t i = 0; i < ws.size(); ++i) {
+                if (cursors_[i] == 0) continue;
+                const WireEntry& en = on_wire_[ws[i]][cursors_[i] - 1];
+                if (en.pos != j) continue;
+                --cursors_[i];
+                ++shared;
+                entry = &en;
+                shared_wire = ws[i];
+                agree = agree && en.role == roles_[i] && en.role != WireRole::Other;
+                both_z = both_z || (en.role == WireRole::Z && roles_[i] == WireRole::Z);
+                earlier_x_meets_z = earlier_x_meets_z || (en.role == WireRole::X && roles_[i] == WireRole::Z);
+                earlier_z_meets_x = earlier_z_meets_x || (en.role == WireRole::Z && roles_[i] == WireRole::X);
+            }
             ++steps;
-            const uint32_t earlier = index_of(j);
-            if (!live_[earlier]) continue;
-            if (!kicked_.empty() && kicked_.count(j)) break;  // its kickback op is not in the wire lists' order: a wall
+            const uint8_t st = state_[j];
+            if (!(st & kLive)) continue;
+            if (st & kWall) break;
             ++visited;
-            Op& e = c_.ops[earlier];
-            ir::Angle g2 = g;
-            added_.clear();
-            if (kick) {
-                // Only a vanishing pair pays for the extra op; try the rule on a copy first.
-                Op trial = e;
-                PassResult scratch;
-                const Combined how = combine_(trial, moved, g2, added_, scratch);
-                if (how != Combined::No) {
-                    const bool pays =
-                        how == Combined::Vanished && estimated_t_cost(kick->extra) <= pair_t_cost(e, moved);
-                    if (!pays) break;
-                    for (const auto& [name, n] : scratch.stats) result_.count(name, n);
-                    commit_kick(*kick);
-                    note_pairs(e, moved, how);
-                    live_[earlier] = 0;
-                    live_[index_of(p)] = 0;
-                    global_ += g2;
-                    fired_ = true;
-                    return;
+            const bool shaped = !(st & kStale) && entry->wires != kManyWires && mover_shape.wires != kManyWires;
+            const bool may_combine = !shaped || rule_.may_combine(OpShape{entry->kind, entry->wires}, mover_shape, shared);
+            if (!may_combine) {  // decided without reading the earlier op where the entries suffice
+                if (agree) continue;
+                if (entry->kind == ir::OpKind::X && entry->wires == 1) {
+                    // An uncontrolled X on the one shared wire: it may rewrite the mover, and it
+                    // takes part in no kickback (it has no control, and its target is its only wire).
+                    if (mover == &op) {
+                        moved_ = op;
+                        mover = &moved_;
+                    }
+                    if (move_before_not(shared_wire, moved_, g)) continue;
+                    break;
                 }
-            } else {
-                const Combined how = combine_(e, moved, g2, added_, result_);
-                if (how != Combined::No) {
-                    note_pairs(e, moved, how);
-                    if (how == Combined::Vanished) live_[earlier] = 0;
-                    live_[index_of(p)] = 0;  // the mover is gone either way
-                    for (uint32_t w : added_) add_wire(j, w);
-                    global_ += g2;
-                    fired_ = true;
-                    return;
+                const bool may_kick = limits_.kickback && !kick &&
+                                      ((earlier_x_meets_z && kick_may_pay(*entry, *mover, true)) ||
+                                       (earlier_z_meets_x && kick_may_pay(*entry, *mover, false)));
+                if (!both_z && !may_kick) break;
+            }
+            const uint32_t earlier = index_of(j);
+            Op& e = c_.ops[earlier];
+            if (may_combine) {
+                ir::Angle g2 = g;
+                added_.clear();
+                if (kick) {
+                    // Only a vanishing pair pays for the extra op; try the rule on a copy first.
+                    Op trial = e;
+                    PassResult scratch;
+                    const Combined how = rule_.combine(trial, *mover, g2, added_, scratch);
+                    if (how != Combined::No) {
+                        const bool pays =
+                            how == Combined::Vanished && estimated_t_cost(kick->extra) <= pair_t_cost(e, *mover);
+                        if (!pays) break;
+                        for (const auto& [name, n] : scratch.stats) result_.count(name, n);
+                        commit_kick(*kick);
+                        note_pairs(e, *mover, how);
+                        state_[j] &= uint8_t(~kLive);
+                        state_[p] &= uint8_t(~kLive);
+                        global_ += g2;
+                        fired_ = true;
+                        return;
+                    }
+                } else {
+                    const Combined how = rule_.combine(e, *mover, g2, added_, result_);
+                    if (how != Combined::No) {
+                        note_pairs(e, *mover, how);
+                        if (how == Combined::Vanished) state_[j] &= uint8_t(~kLive);
+                        state_[j] |= kStale;
+                        state_[p] &= uint8_t(~kLive);  // the mover is gone either way
+                        for (uint32_t w : added_) add_wire(j, w, e);
+                        global_ += g2;
+                        fired_ = true;
+                        return;
+                    }
                 }
             }
-            if (move_before(e, moved, g)) continue;
+            if (rewrites_mover(e)) {
+                if (mover == &op) {
+                    moved_ = op;
+                    mover = &moved_;
+                }
+                if (move_before(e, moved_, g)) continue;
+            } else if (commutes_unchanged(e, *mover)) {
+                continue;
+            }
             Op extra;
-            if (!limits_.kickback || kick || !kickback_move(e, moved, extra)) break;
+            if (!limits_.kickback || kick || !kickback_move(e, *mover, extra)) break;
+            // Only a vanishing pair pays for the extra op, and its price is known now (a vanishing
+            // earlier op has the mover's kind, targets and control count: CombineRule). A kick
+            // that cannot pay would only let the walk end without a change.
+            if (estimated_t_cost(extra) > pair_t_cost(*mover, *mover)) break;
             kick = PendingKick{j, std::move(extra)};
         }
         append(p, op);
+    }
+
+    /// From the earlier op's entry alone: can a kickback between it and the mover pay? With
+    /// `earlier_is_x` the earlier op's X target meets a control of the mover, else the reverse.
+    bool kick_may_pay(const WireEntry& earlier, const Op& mover, bool earlier_is_x) const {
+        const uint32_t targets = earlier.kind == ir::OpKind::Swap ? 2 : earlier.kind == ir::OpKind::Phase ? 0 : 1;
+        const uint32_t earlier_controls = earlier.wires >= targets ? earlier.wires - targets : 0;
+        const uint32_t mover_controls = uint32_t(mover.controls.size());
+        const uint64_t bound =
+            earlier_is_x ? kickback_t_cost_bound(mover.kind, mover_controls, earlier_controls)
+                         : kickback_t_cost_bound(earlier.kind, earlier_controls, mover_controls);
+        const bool kinds = earlier_is_x ? kickback_kinds(earlier.kind, earlier.wires, mover.kind) && is_involution(mover)
+                                        : kickback_kinds(mover.kind, uint32_t(mover.controls.size()) + 1, earlier.kind);
+        return kinds && bound <= pair_t_cost(mover, mover);
     }
 
     /// The estimated T-cost of a pair about to vanish, as the lowering could price it.
@@ -187,22 +311,25 @@ private:
         if (from.pair) broken_.insert(from.pair);
         wires_.clear();
         k.extra.wires(wires_);
-        for (uint32_t w : wires_) add_wire(k.slot, w);
-        kicked_.emplace(k.slot, std::move(k.extra));
+        for (uint32_t w : wires_) add_wire(k.slot, w, k.extra);
+        state_[k.slot] |= kWall;
+        kicked_.push_back(std::move(k));
         result_.count("kickbacks");
     }
 
     ir::Circuit& c_;
-    const CombineRule& combine_;
+    const CombineRule& rule_;
     PassResult& result_;
     RewriteLimits limits_;
     bool right_to_left_;
     uint32_t n_;
-    std::vector<uint8_t> live_;  ///< by op index
-    std::unordered_map<uint32_t, Op> kicked_;  ///< kickback op following the op placed at a position
-    std::vector<std::vector<uint32_t>> on_wire_;
+    std::vector<std::vector<WireEntry>>& on_wire_;  ///< by wire: entries in placement order
+    std::vector<uint8_t>& state_;                   ///< by position: kLive, kWall, kStale
+    std::vector<PendingKick> kicked_;  ///< kickback ops, each following the op placed at its slot
     std::vector<uint32_t> wires_, added_, mover_wires_;
     std::vector<size_t> cursors_;
+    std::vector<WireRole> roles_;
+    Op moved_;  ///< the mover once rewritten (storage reused by every walk)
     std::unordered_set<uint32_t> broken_;
     uint32_t fence_ = kNone;
     ir::Angle global_;
@@ -211,9 +338,9 @@ private:
 
 }  // namespace
 
-bool rewrite_backwards(ir::Circuit& c, const CombineRule& combine, PassResult& result, RewriteLimits limits,
-                       bool right_to_left) {
-    return Rewriter(c, combine, result, limits, right_to_left).run();
+bool rewrite_backwards(ir::Circuit& c, const CombineRule& rule, PassResult& result, RewriteBuffers& buffers,
+                       RewriteLimits limits, bool right_to_left) {
+    return Rewriter(c, rule, result, *buffers.lists, limits, right_to_left).run();
 }
 
 }  // namespace whittle::passes

@@ -2,7 +2,8 @@
 #pragma once
 
 #include <cstdint>
-#include <functional>
+#include <memory>
+#include <vector>
 
 #include "ir/circuit.h"
 #include "passes/pass.h"
@@ -16,12 +17,25 @@ enum class Combined : uint8_t {
     Vanished,  ///< both are gone (inverse pair, or the merged op became the identity)
 };
 
-/// A combine rule: `earlier` is a live op the (possibly transformed) `mover` reached. The rule may
-/// change `earlier` (but may only add wires to it through the `added_wire` out-list) and add to
-/// `global` when it absorbs; when it returns Combined::No it must leave both as they were. It is
-/// called only with non-fence ops.
-using CombineRule = std::function<Combined(ir::Op& earlier, const ir::Op& mover, ir::Angle& global,
-                                           std::vector<uint32_t>& added_wires, PassResult& result)>;
+/// The shape of an op the rewriter keeps beside each wire's list of positions (so a walk decides
+/// most steps without reading the op itself).
+struct OpShape {
+    ir::OpKind kind;
+    uint32_t wires;  ///< number of distinct wires the op touches
+};
+
+/// A combine rule. `combine`: `earlier` is a live op the (possibly transformed) `mover` reached.
+/// It may change `earlier` (but may only add wires to it through the `added_wires` out-list) and
+/// add to `global` when it absorbs; when it returns Combined::No it must leave both as they were.
+/// It is called only with non-fence ops, and returns Vanished only for an `earlier` with the
+/// mover's kind (or SX against SXdg), targets and number of controls (so a kickback's price is
+/// known before the walk meets the pair). `may_combine` is its cheap pre-filter: it returns false
+/// only when `combine` returns No for every pair of ops of these shapes sharing `shared` wires.
+struct CombineRule {
+    Combined (*combine)(ir::Op& earlier, const ir::Op& mover, ir::Angle& global, std::vector<uint32_t>& added_wires,
+                        PassResult& result);
+    bool (*may_combine)(OpShape earlier, OpShape mover, uint32_t shared);
+};
 
 struct RewriteLimits {
     /// Live ops sharing a wire with the mover that one walk may visit (keeps the pass O(n * window)).
@@ -46,7 +60,19 @@ struct RewriteLimits {
 /// With `right_to_left` the ops are read last to first, exactly as if they were reversed, swept and
 /// reversed back, without moving them. The ops are rewritten in place (see the .cpp); a combine
 /// rule must leave `earlier` as it was when it returns Combined::No.
-bool rewrite_backwards(ir::Circuit& c, const CombineRule& combine, PassResult& result, RewriteLimits limits = {},
-                       bool right_to_left = false);
+/// Memory that consecutive sweeps reuse: the per-wire lists keep their capacity, so a fixpoint of
+/// several sweeps allocates them once instead of growing them afresh in every sweep.
+class RewriteBuffers {
+public:
+    RewriteBuffers();
+    ~RewriteBuffers();
+    RewriteBuffers(const RewriteBuffers&) = delete;
+    RewriteBuffers& operator=(const RewriteBuffers&) = delete;
+    struct Lists;  // defined in backward_rewriter.cpp
+    std::unique_ptr<Lists> lists;
+};
+
+bool rewrite_backwards(ir::Circuit& c, const CombineRule& rule, PassResult& result, RewriteBuffers& buffers,
+                       RewriteLimits limits = {}, bool right_to_left = false);
 
 }  // namespace whittle::passes

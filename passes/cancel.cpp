@@ -11,7 +11,7 @@ PassResult cancel(ir::Circuit& c, const PassOptions& opts) {
     RewriteLimits limits;
     limits.kickback = true;
     limits.measured_erase = opts.allow_measurement;
-    sweep_both_ways(c, cancel_rule, result, 4, limits);
+    sweep_both_ways(c, kCancelRule, result, 4, limits);
     return result;
 }
 

@@ -158,4 +158,25 @@ Combined merge_controls_rule(Op& e, const Op& m, Angle& global, std::vector<uint
     return Combined::No;
 }
 
+namespace {
+
+bool cancel_may_combine(OpShape e, OpShape m, uint32_t shared) {
+    const bool sx_pair = (e.kind == OpKind::SX && m.kind == OpKind::SXdg) ||
+                         (e.kind == OpKind::SXdg && m.kind == OpKind::SX);
+    // same_targets and same_literals: the same wire set.
+    return (e.kind == m.kind || sx_pair) && e.wires == m.wires && shared == m.wires;
+}
+
+bool merge_controls_may_combine(OpShape e, OpShape m, uint32_t shared) {
+    if (e.kind != m.kind || (e.kind != OpKind::X && e.kind != OpKind::Phase)) return false;
+    // A merge needs one wire set; a split needs one set to be the other plus one wire.
+    if (e.wires == m.wires) return shared == m.wires;
+    return (e.wires == m.wires + 1 || m.wires == e.wires + 1) && shared == std::min(e.wires, m.wires);
+}
+
+}  // namespace
+
+const CombineRule kCancelRule{cancel_rule, cancel_may_combine};
+const CombineRule kMergeControlsRule{merge_controls_rule, merge_controls_may_combine};
+
 }  // namespace whittle::passes

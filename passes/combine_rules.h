@@ -19,6 +19,14 @@ Combined cancel_rule(ir::Op& earlier, const ir::Op& mover, ir::Angle& global, st
 Combined merge_controls_rule(ir::Op& earlier, const ir::Op& mover, ir::Angle& global,
                              std::vector<uint32_t>& added_wires, PassResult& result);
 
+/// cancel_rule with its pre-filter (a pair can combine only when it has one kind, or is SX and SXdg,
+/// and the same wires).
+extern const CombineRule kCancelRule;
+
+/// merge_controls_rule with its pre-filter (one kind, X or Phase, and wire sets that are equal or
+/// differ by one wire).
+extern const CombineRule kMergeControlsRule;
+
 /// Adds rotation angle `b` to `a` (both stored in [0, 2*pi)); true when the true sum reached 2*pi,
 /// i.e. R(a) R(b) = -R(a + b) with the stored, reduced sum.
 bool add_rotation_angle(ir::Angle& a, const ir::Angle& b);

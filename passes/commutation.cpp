@@ -60,31 +60,6 @@ bool orthogonal(const Op& a, const Op& b) {
     return false;
 }
 
-/// Moves `mover` before an uncontrolled X on `w` (the mover touches w).
-bool move_before_not(uint32_t w, Op& mover, ir::Angle& global) {
-    if (mover.target == w || mover.target2 == w) {
-        if (wire_role(mover, w) == WireRole::X) return true;
-        if (mover.kind == OpKind::RZ && mover.controls.empty()) {
-            if (!mover.angle.is_zero()) global += ir::Angle::pi_times(1);
-            mover.angle = -mover.angle;
-            return true;
-        }
-        return false;
-    }
-    if (mover.kind == OpKind::Parity) {
-        global += mover.angle;
-        mover.angle = -mover.angle;
-        return true;
-    }
-    if (mover.kind == OpKind::Barrier) return false;
-    for (Lit& l : mover.controls)
-        if (l.wire() == w) {
-            l = l.flipped();
-            return true;
-        }
-    return false;
-}
-
 }  // namespace
 
 WireRole wire_role(const Op& op, uint32_t wire) {
@@ -114,21 +89,10 @@ bool same_literals(const ir::LitVec& a, const ir::LitVec& b) {
     return std::equal(sa.begin(), sa.end(), sb.begin());
 }
 
-bool move_before(const Op& earlier, Op& mover, ir::Angle& global) {
-    if (is_fence(earlier) || is_fence(mover)) return false;
-    // The mover's wires are walked in place (no list is built: this runs once per step of every walk).
-    bool shares = false;
-    for_each_wire(mover, [&](uint32_t w) { shares = shares || wire_role(earlier, w) != WireRole::None; });
-    if (!shares) return true;
-    if (orthogonal(earlier, mover)) return true;
-    if (is_uncontrolled_x(earlier)) {
-        Op moved = mover;
-        ir::Angle g = global;
-        if (!move_before_not(earlier.target, moved, g)) return false;
-        mover = std::move(moved);
-        global = g;
-        return true;
-    }
+namespace {
+
+/// move_before's cases that leave the mover as it is (everything but an uncontrolled X earlier).
+bool commutes_as_is(const Op& earlier, const Op& mover) {
     bool roles_agree = true;
     for_each_wire(mover, [&](uint32_t w) {
         if (!roles_agree) return;
@@ -137,7 +101,50 @@ bool move_before(const Op& earlier, Op& mover, ir::Angle& global) {
         const WireRole b = wire_role(mover, w);
         if (a != b || a == WireRole::Other) roles_agree = false;
     });
-    return roles_agree;
+    return roles_agree || orthogonal(earlier, mover);
+}
+
+}  // namespace
+
+bool move_before_not(uint32_t w, Op& mover, ir::Angle& global) {
+    if (mover.target == w || mover.target2 == w) {
+        if (wire_role(mover, w) == WireRole::X) return true;
+        if (mover.kind == OpKind::RZ && mover.controls.empty()) {
+            if (!mover.angle.is_zero()) global += ir::Angle::pi_times(1);
+            mover.angle = -mover.angle;
+            return true;
+        }
+        return false;
+    }
+    if (mover.kind == OpKind::Parity) {
+        global += mover.angle;
+        mover.angle = -mover.angle;
+        return true;
+    }
+    if (mover.kind == OpKind::Barrier) return false;
+    for (Lit& l : mover.controls)
+        if (l.wire() == w) {
+            l = l.flipped();
+            return true;
+        }
+    return false;
+}
+
+bool rewrites_mover(const Op& earlier) { return is_uncontrolled_x(earlier); }
+
+bool commutes_unchanged(const Op& earlier, const Op& mover) {
+    if (is_fence(earlier) || is_fence(mover)) return false;
+    return commutes_as_is(earlier, mover);
+}
+
+bool move_before(const Op& earlier, Op& mover, ir::Angle& global) {
+    if (is_fence(earlier) || is_fence(mover)) return false;
+    if (!is_uncontrolled_x(earlier)) return commutes_as_is(earlier, mover);
+    // The mover's wires are walked in place (no list is built: this runs once per step of every walk).
+    bool shares = false;
+    for_each_wire(mover, [&](uint32_t w) { shares = shares || wire_role(earlier, w) != WireRole::None; });
+    if (!shares) return true;
+    return move_before_not(earlier.target, mover, global);  // it changes nothing when it returns false
 }
 
 }  // namespace whittle::passes

@@ -40,4 +40,16 @@ bool same_literals(const ir::LitVec& a, const ir::LitVec& b);
 /// Fences (see is_fence) never move. On false, `mover` and `global` are unchanged.
 bool move_before(const ir::Op& earlier, ir::Op& mover, ir::Angle& global);
 
+/// Whether move_before(earlier, ...) may change the mover or the global phase: only an
+/// uncontrolled X does. When false, `commutes_unchanged` gives move_before's answer without a copy
+/// of the mover.
+bool rewrites_mover(const ir::Op& earlier);
+
+/// move_before for an `earlier` that is an uncontrolled X on `wire`, a wire of the mover (what the
+/// rewriter knows from its wire lists without reading that op).
+bool move_before_not(uint32_t wire, ir::Op& mover, ir::Angle& global);
+
+/// move_before for an `earlier` that does not rewrite the mover (rewrites_mover(earlier) is false).
+bool commutes_unchanged(const ir::Op& earlier, const ir::Op& mover);
+
 }  // namespace whittle::passes

@@ -10,7 +10,7 @@ PassResult gate_cancel(ir::Circuit& c, const PassOptions&) {
     PassResult result;
     RewriteLimits limits;
     limits.window = 256;
-    sweep_both_ways(c, cancel_rule, result, 6, limits);
+    sweep_both_ways(c, kCancelRule, result, 6, limits);
     return result;
 }
 

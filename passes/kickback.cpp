@@ -13,15 +13,9 @@ using ir::OpKind;
 
 namespace {
 
-bool is_involution(const Op& op) {
-    switch (op.kind) {
-    case OpKind::X:
-    case OpKind::Y:
-    case OpKind::H:
-    case OpKind::Swap: return true;
-    case OpKind::Phase: return op.angle == ir::Angle::pi_times(1);
-    default: return false;
-    }
+/// The kinds is_involution can hold for (a Phase only with angle pi).
+bool involution_kind(OpKind k) {
+    return k == OpKind::X || k == OpKind::Y || k == OpKind::H || k == OpKind::Swap || k == OpKind::Phase;
 }
 
 /// `x` = X(t; C), `other` = B controlled on t (see kickback_move); on success `extra` = E.
@@ -61,6 +55,26 @@ uint64_t toffoli_chain_t(size_t controls) { return controls < 2 ? 0 : 7 * (2 * u
 bool kickback_move(const Op& earlier, const Op& mover, Op& extra) {
     if (is_fence(earlier) || is_fence(mover)) return false;
     return kick(earlier, mover, extra) || kick(mover, earlier, extra);
+}
+
+bool is_involution(const Op& op) {
+    if (op.kind == OpKind::Phase) return op.angle == ir::Angle::pi_times(1);
+    return involution_kind(op.kind);
+}
+
+bool kickback_kinds(OpKind x_kind, uint32_t x_wires, OpKind other_kind) {
+    return x_kind == OpKind::X && x_wires >= 2 && involution_kind(other_kind);
+}
+
+uint64_t kickback_t_cost_bound(OpKind other_kind, uint32_t other_controls, uint32_t x_controls) {
+    const size_t k = std::max(other_controls > 0 ? other_controls - 1 : 0, x_controls);
+    switch (other_kind) {
+    case OpKind::X:
+    case OpKind::Y: return toffoli_chain_t(k);
+    case OpKind::H:
+    case OpKind::Swap: return toffoli_chain_t(k + 1);
+    default: return 0;
+    }
 }
 
 uint64_t estimated_t_cost(const Op& op) {

@@ -16,6 +16,20 @@ namespace whittle::passes {
 /// mover is unchanged. False when neither is such an A/B pair (or E would be the identity).
 bool kickback_move(const ir::Op& earlier, const ir::Op& mover, ir::Op& extra);
 
+/// The ops a kickback can cross: X, Y, H, Swap (any controls) and a Phase of pi.
+bool is_involution(const ir::Op& op);
+
+/// A cheap necessary condition for a kickback between an op of kind `x_kind` touching `x_wires`
+/// wires whose target is a control of an op of kind `other_kind`: the first must be an X with
+/// controls and the second of an involution kind. False means kickback_move is false for every such pair.
+bool kickback_kinds(ir::OpKind x_kind, uint32_t x_wires, ir::OpKind other_kind);
+
+/// A lower bound of estimated_t_cost of the op kickback_move adds when X(t; C) with |C| =
+/// `x_controls` meets an involution of kind `other_kind` with `other_controls` controls (one on
+/// t): that op has `other_kind` and at least max(other_controls - 1, x_controls) controls. A Phase
+/// is bounded by 0 (its angle decides whether it is priced at all).
+uint64_t kickback_t_cost_bound(ir::OpKind other_kind, uint32_t other_controls, uint32_t x_controls);
+
 /// A monotone estimate of the T-count an op lowers to, for deciding whether a kickback pays: a
 /// k-control X (or Y, or a Phase of pi on k + 1 literals) as the 2k - 3 Toffolis of a clean V-chain
 /// at 7 T each (CHECKS.md: V-chain, practice; Toffoli 7 T, Gosset et al. 2014, arXiv:1308.4134),

@@ -8,7 +8,7 @@ namespace whittle::passes {
 
 PassResult merge_controls(ir::Circuit& c, const PassOptions&) {
     PassResult result;
-    sweep_both_ways(c, merge_controls_rule, result);
+    sweep_both_ways(c, kMergeControlsRule, result);
     return result;
 }
 
