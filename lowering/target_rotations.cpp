@@ -103,9 +103,10 @@ void to_rotation_target(const Op& op, OpSink& s, const ir::Circuit& c, Target t)
         for (Lit l : op.controls)
             if (!l.positive()) inner.x(l.wire());
         for (const Op& o : tmp) to_rotation_target(o, s, c, t);
+        s.add_global_phase(gp);
         return;
     }
-    if (op.kind == OpKind::Phase && nc == 3) {
+    if (op.kind == OpKind::Phase && nc == 3 && op.angle == Angle::pi_times(1)) {  // a CCZ; other angles need lower-controls
         std::vector<Op> tmp;
         Angle gp;
         OpSink inner(tmp, gp);
@@ -116,6 +117,7 @@ void to_rotation_target(const Op& op, OpSink& s, const ir::Circuit& c, Target t)
         for (Lit l : op.controls)
             if (!l.positive()) inner.x(l.wire());
         for (const Op& o : tmp) to_rotation_target(o, s, c, t);
+        s.add_global_phase(gp);
         return;
     }
     std::vector<uint32_t> wires = op.wires();

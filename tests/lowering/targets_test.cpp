@@ -53,6 +53,23 @@ TEST_CASE("hand-written oracle (crane collision check) on every target") {
     }
 }
 
+TEST_CASE("to-target alone on a rotation target: a CCZ is lowered, a 3-control phase of another angle is refused") {
+    // A 3-literal phase is a CCZ only for the angle pi; to-target once lowered every 3-literal phase
+    // as a CCZ (found by the long property run). Checked against the dense unitary of the input.
+    for (lowering::Target t : {lowering::Target::UCx, lowering::Target::CxRzSx}) {
+        passes::PassOptions o = for_target(t);
+        ir::Circuit ccz = wires(3, 0);
+        ccz.ops = {ir::Op::phase(ir::Angle::pi_times(1), {ir::Lit::neg(0), ir::Lit::pos(1), ir::Lit::neg(2)})};
+        ir::Circuit ref = ccz;
+        passes::run_passes(ccz, {"to-target"}, o);
+        CHECK(only_target_gates(ccz, t));
+        CHECK(distance_on_clean_inputs(ref, ccz) < 1e-9);
+        ir::Circuit fine = wires(3, 0);
+        fine.ops = {ir::Op::phase(ir::Angle::pi_times(1, 5), positive_lits(0, 3))};
+        CHECK_THROWS_AS(passes::run_passes(fine, {"to-target"}, o), UserError);
+    }
+}
+
 TEST_CASE("random circuits on every rotation target (property test)") {
     const lowering::Target rot[] = {lowering::Target::CxRzSx, lowering::Target::CzRxRz, lowering::Target::ISwapRzRx,
                                     lowering::Target::XxR, lowering::Target::UCx};
