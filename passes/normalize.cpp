@@ -2,6 +2,7 @@
 #include "passes/normalize.h"
 
 #include <algorithm>
+#include <iterator>
 
 namespace whittle::passes {
 
@@ -110,16 +111,36 @@ bool same_op(const Op& a, const Op& b) {
 
 PassResult normalize(ir::Circuit& c, const PassOptions&) {
     PassResult result;
-    Normalizer n{ir::take_spare_ops(c.ops.size() + c.ops.size() / 8), {}, result};
-    n.out.reserve(c.ops.size());
-    for (const Op& op : c.ops) n.add(op);
-    bool changed = n.out.size() != c.ops.size() || !n.global.is_zero();
-    for (size_t i = 0; !changed && i < n.out.size(); ++i) changed = !same_op(n.out[i], c.ops[i]);
+    Normalizer n{{}, {}, result};
+    const size_t size_before = c.ops.size();
+    // In place while the written prefix stays behind the read position (an op becomes at most one op
+    // in the common case), so the first pass of a big circuit needs no second op vector.
+    bool changed = false;
+    size_t write = 0, read = 0;
+    for (; read < c.ops.size(); ++read) {
+        n.out.clear();
+        n.add(c.ops[read]);
+        if (write + n.out.size() > read + 1) break;
+        if (n.out.size() != 1 || !same_op(n.out[0], c.ops[read])) changed = true;
+        for (Op& o : n.out) c.ops[write++] = std::move(o);
+    }
+    if (read < c.ops.size()) {
+        // An op grew past the read position: finish into a fresh list.
+        std::vector<Op> grown = std::move(n.out);
+        n.out = ir::take_spare_ops(c.ops.size() + c.ops.size() / 8 + grown.size());
+        std::move(c.ops.begin(), c.ops.begin() + std::ptrdiff_t(write), std::back_inserter(n.out));
+        std::move(grown.begin(), grown.end(), std::back_inserter(n.out));
+        for (++read; read < c.ops.size(); ++read) n.add(c.ops[read]);
+        c.replace_ops(std::move(n.out));
+        changed = true;
+    } else {
+        c.ops.resize(write);
+    }
+    changed = changed || !n.global.is_zero();
     if (!changed) return result;
-    const int64_t delta = int64_t(c.ops.size()) - int64_t(n.out.size());
+    const int64_t delta = int64_t(size_before) - int64_t(c.ops.size());
     if (delta > 0) result.count("ops-dropped", delta);
     if (delta < 0) result.count("ops-split", -delta);
-    c.replace_ops(std::move(n.out));
     c.global_phase += n.global;
     result.changed = true;
     return result;
