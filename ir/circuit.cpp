@@ -183,26 +183,6 @@ int Circuit::find_creg(std::string_view name) const {
     return -1;
 }
 
-namespace {
-thread_local std::vector<Op> spare_ops;  // empty; only its capacity matters
-}  // namespace
-
-std::vector<Op> take_spare_ops(size_t capacity) {
-    std::vector<Op> v = std::move(spare_ops);
-    spare_ops = {};
-    if (v.capacity() < capacity) v = {};  // too small: let the caller's block be one fresh allocation
-    v.reserve(capacity);
-    return v;
-}
-
-void release_spare_ops() { spare_ops = {}; }
-
-void Circuit::replace_ops(std::vector<Op>&& rebuilt) {
-    std::vector<Op> old = std::exchange(ops, std::move(rebuilt));
-    old.clear();
-    if (old.capacity() > spare_ops.capacity()) spare_ops = std::move(old);
-}
-
 Circuit Circuit::empty_copy() const {
     Circuit c;
     c.registers = registers;

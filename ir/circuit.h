@@ -198,17 +198,7 @@ public:
     uint32_t new_pair_id() { return next_pair_id++; }
     /// Same qubits, registers and files, no ops.
     Circuit empty_copy() const;
-    /// Installs a rebuilt op list (from take_spare_ops) and keeps the replaced one as the spare.
-    void replace_ops(std::vector<Op>&& rebuilt);
 };
-
-/// An empty op vector with room for `capacity` ops, made from the spare that the last replace_ops
-/// kept on this thread when it is large enough. A pass that rebuilds the op list writes into it:
-/// memory that is already mapped, where a fresh block of hundreds of MB costs a page fault and the
-/// kernel's zeroing per page (measured: about a tenth of a 10^6-gate compile).
-std::vector<Op> take_spare_ops(size_t capacity);
-/// Frees this thread's spare (the pipeline does so when it ends, before the output is written).
-void release_spare_ops();
 
 /// Appends the inverse of `op` (one or more ops) to `out`. Throws UserError for Measure/Reset.
 void append_inverse(const Op& op, std::vector<Op>& out);

@@ -97,7 +97,8 @@ PassResult lower_controls(ir::Circuit& c, const PassOptions& opts) {
         r.notes.push_back(fmt::format("added {} clean work wire(s) (--extra-ancillas {})", added, opts.extra_ancillas));
     }
     lowering::CleanWireTracker tracker(c);
-    std::vector<ir::Op> out = ir::take_spare_ops(c.ops.size() + c.ops.size() / 4);
+    std::vector<ir::Op> out;
+    out.reserve(c.ops.size() + c.ops.size() / 4);
     ir::Angle phase = c.global_phase;
     lowering::OpSink sink(out, phase);
     // A rotation that is not Clifford+T costs its approximation in the T metric: typically
@@ -145,7 +146,7 @@ PassResult lower_controls(ir::Circuit& c, const PassOptions& opts) {
     if (lowered > kMaxNotes) r.notes.push_back(fmt::format("... and {} more ops", lowered - kMaxNotes));
     for (const auto& [name, n] : lw.used()) r.count(name, n);
     r.count("ops-lowered", int64_t(lowered));
-    c.replace_ops(std::move(out));
+    c.ops = std::move(out);
     c.global_phase = phase;
     r.changed = true;
     return r;

@@ -103,7 +103,8 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
     // Room for the longest form (15 gates) and the X pairs around negative controls.
     const size_t expanded = size_t(std::count_if(c.ops.begin(), c.ops.end(),
                                                  [](const Op& op) { return is_toffoli(op) || is_ccz(op); }));
-    std::vector<Op> out = ir::take_spare_ops(n_ops + 20 * expanded);
+    std::vector<Op> out;
+    out.reserve(n_ops + 20 * expanded);
     ir::Angle phase = c.global_phase;
     lowering::OpSink s(out, phase);
     for (size_t i = 0; i < n_ops; ++i) {
@@ -145,7 +146,7 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
         for (Lit l : op.controls)
             if (!l.positive()) s.x(l.wire());
     }
-    c.replace_ops(std::move(out));
+    c.ops = std::move(out);
     c.global_phase = phase;
     r.changed = true;
     return r;

@@ -127,11 +127,12 @@ PassResult normalize(ir::Circuit& c, const PassOptions&) {
     if (read < c.ops.size()) {
         // An op grew past the read position: finish into a fresh list.
         std::vector<Op> grown = std::move(n.out);
-        n.out = ir::take_spare_ops(c.ops.size() + c.ops.size() / 8 + grown.size());
+        n.out = std::vector<Op>();
+        n.out.reserve(c.ops.size() + c.ops.size() / 8 + grown.size());
         std::move(c.ops.begin(), c.ops.begin() + std::ptrdiff_t(write), std::back_inserter(n.out));
         std::move(grown.begin(), grown.end(), std::back_inserter(n.out));
         for (++read; read < c.ops.size(); ++read) n.add(c.ops[read]);
-        c.replace_ops(std::move(n.out));
+        c.ops = std::move(n.out);
         changed = true;
     } else {
         c.ops.resize(write);

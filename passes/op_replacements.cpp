@@ -7,12 +7,13 @@ void apply_replacements(ir::Circuit& c, const std::vector<uint8_t>& dropped, std
     // The exact size: a second growth would hold three op vectors at once.
     size_t size = 0;
     for (size_t i = 0; i < c.ops.size(); ++i) size += (dropped[i] ? 0 : 1) + insert[i].size();
-    std::vector<ir::Op> out = ir::take_spare_ops(size);
+    std::vector<ir::Op> out;
+    out.reserve(size);
     for (size_t i = 0; i < c.ops.size(); ++i) {
         if (!dropped[i]) out.push_back(std::move(c.ops[i]));  // c.ops is replaced below
         for (ir::Op& op : insert[i]) out.push_back(std::move(op));
     }
-    c.replace_ops(std::move(out));
+    c.ops = std::move(out);
 }
 
 }  // namespace whittle::passes

@@ -131,7 +131,6 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
         if (hooks.after_pass && rec.changed) hooks.after_pass(rec.name, c);
         records.push_back(std::move(rec));
     }
-    ir::release_spare_ops();
     if (hooks.progress) hooks.progress("done", names.size(), names.size());
     return records;
 }

@@ -14,7 +14,8 @@ PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
     bool all_in = true;
     for (const ir::Op& op : c.ops) all_in = all_in && lowering::in_target(op, t);
     if (all_in) return r;
-    std::vector<ir::Op> out = ir::take_spare_ops(c.ops.size() + c.ops.size() / 4);
+    std::vector<ir::Op> out;
+    out.reserve(c.ops.size() + c.ops.size() / 4);
     ir::Angle phase = c.global_phase;
     lowering::OpSink s(out, phase);
     lowering::RotationBudget budget;
@@ -37,7 +38,7 @@ PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
         r.count("rotations-approximated", budget.approximated);
         r.error_bound += budget.error_bound;
     }
-    c.replace_ops(std::move(out));
+    c.ops = std::move(out);
     c.global_phase = phase;
     r.changed = true;
     return r;
