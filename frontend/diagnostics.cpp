@@ -36,7 +36,7 @@ std::string format_error(const UserError& e, const SourceManager& sm) {
         if (!file.empty()) return fmt::format("{}: error: {}\n", file, e.what());
         return fmt::format("error: {}\n", e.what());
     }
-    std::string out = fmt::format("{}:{}:{}: error: {}\n", file, loc.line, loc.column, e.what());
+    std::string out = fmt::format("{}:{}:{}: error: {}\n", file, uint32_t(loc.line), uint32_t(loc.column), e.what());
     if (loc.file < sm.size()) {
         std::string_view src = sm.line(loc.file, loc.line);
         if (!src.empty() && src.size() < 400) {

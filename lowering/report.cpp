@@ -47,7 +47,7 @@ namespace {
 
 Json loc_json(const ir::SourceLoc& loc) {
     if (!loc.known()) return nullptr;
-    return {{"line", loc.line}, {"column", loc.column}};
+    return {{"line", uint32_t(loc.line)}, {"column", uint32_t(loc.column)}};
 }
 
 Json pass_json(const passes::PassRecord& r) {

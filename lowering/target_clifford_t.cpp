@@ -85,7 +85,7 @@ std::string describe_op(const ir::Circuit& c, const Op& op, bool with_location) 
     std::string where;
     if (with_location && op.loc.known()) {
         const std::string file = op.loc.file < c.files.size() ? c.files[op.loc.file] : std::string("<input>");
-        where = fmt::format(" ({}:{}:{})", file, op.loc.line, op.loc.column);
+        where = fmt::format(" ({}:{}:{})", file, uint32_t(op.loc.line), uint32_t(op.loc.column));
     }
     std::string wires;
     for (uint32_t w : op.wires()) wires += (wires.empty() ? "" : ",") + c.wire_name(w);

@@ -139,8 +139,8 @@ private:
     void expect_close(const Token& open) {
         Token c = lx_.take();
         if (c.kind != Tok::RParen)
-            throw UserError(fmt::format("expected ')' to close the '(' at {}:{} but found {}", open.loc.line,
-                                        open.loc.column, token_name(c.kind)),
+            throw UserError(fmt::format("expected ')' to close the '(' at {}:{} but found {}", uint32_t(open.loc.line),
+                                        uint32_t(open.loc.column), token_name(c.kind)),
                             c.loc);
     }
 
