@@ -2,6 +2,7 @@
 #include "passes/phase_folding.h"
 
 #include <algorithm>
+#include <limits>
 #include <span>
 
 #include <boost/container/small_vector.hpp>
@@ -113,11 +114,14 @@ struct Plan {
 
     /// Non-Clifford cost: a group emitted as a k-literal AND term costs 2^k - 1 unless its angle
     /// divided by 2^{k-1} is a multiple of pi/2 (its parity expansion then is Clifford).
+    /// Products of more than 40 literals are priced as 40: 2^40 - 1 already outweighs any plan that
+    /// could compete, and the shifts stay defined (a term may have up to 65535 literals).
     int64_t cost() const {
         int64_t c = 0;
         for (const Group& g : groups) {
-            const uint32_t k = terms[g.first].literals;
-            if (!g.total.divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(2)) c += (int64_t(1) << k) - 1;
+            const uint32_t k = std::min<uint32_t>(terms[g.first].literals, 40);
+            if (!g.total.divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(2))
+                c = std::min(c + ((int64_t(1) << k) - 1), std::numeric_limits<int64_t>::max() / 2);
         }
         return c;
     }

@@ -191,3 +191,18 @@ TEST_CASE("the engine stops its rounds early only when another round would chang
     }
     CHECK(several_rounds > 0);
 }
+
+TEST_CASE("two phases on one 70-literal product merge") {
+    // e^{ia P} e^{ib P} = e^{i(a+b) P} for one Boolean product P (phase polynomial identity; Amy,
+    // Maslov, Mosca 2014, arXiv:1303.2042). Too wide for a dense check: the merged angle is compared.
+    Circuit c = wires(70);
+    ir::LitVec all;
+    for (uint32_t w = 0; w < 70; ++w) all.push_back(Lit::pos(w));
+    c.ops = {Op::phase(Angle::pi_times(1, 4), all), Op::phase(Angle::pi_times(1, 8), all)};
+    passes::PassResult r = passes::fold_phases(c, {});
+    CHECK(r.changed);
+    verify(c);
+    REQUIRE(c.ops.size() == 1);
+    CHECK(c.ops[0].controls.size() == 70);
+    CHECK(c.ops[0].angle == Angle::pi_times(3, 8));
+}
