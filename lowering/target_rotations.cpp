@@ -91,29 +91,19 @@ void to_rotation_target(const Op& op, OpSink& s, const ir::Circuit& c, Target t)
         one_qubit(norm, ir::one_qubit_matrix(m), s, t);
         return;
     }
-    if (op.kind == OpKind::X && nc == 2) {
-        // A Toffoli that reached the target without lower-toffoli: the 6-CNOT form, then rewrite it.
+    // A Toffoli or a CCZ that reached the target without lower-toffoli: its Clifford+T form (negative
+    // controls flipped around it), each gate of which is then rewritten for the target.
+    const bool toffoli = op.kind == OpKind::X && nc == 2;
+    const bool ccz = op.kind == OpKind::Phase && nc == 3 && op.angle == Angle::pi_times(1);  // other angles need lower-controls
+    if (toffoli || ccz) {
         std::vector<Op> tmp;
         Angle gp;
         OpSink inner(tmp, gp);
         inner.inherit(op);
         for (Lit l : op.controls)
             if (!l.positive()) inner.x(l.wire());
-        toffoli_7t(inner, op.controls[0].wire(), op.controls[1].wire(), op.target);
-        for (Lit l : op.controls)
-            if (!l.positive()) inner.x(l.wire());
-        for (const Op& o : tmp) to_rotation_target(o, s, c, t);
-        s.add_global_phase(gp);
-        return;
-    }
-    if (op.kind == OpKind::Phase && nc == 3 && op.angle == Angle::pi_times(1)) {  // a CCZ; other angles need lower-controls
-        std::vector<Op> tmp;
-        Angle gp;
-        OpSink inner(tmp, gp);
-        inner.inherit(op);
-        for (Lit l : op.controls)
-            if (!l.positive()) inner.x(l.wire());
-        ccz_7t(inner, op.controls[0].wire(), op.controls[1].wire(), op.controls[2].wire());
+        if (toffoli) toffoli_7t(inner, op.controls[0].wire(), op.controls[1].wire(), op.target);
+        else ccz_7t(inner, op.controls[0].wire(), op.controls[1].wire(), op.controls[2].wire());
         for (Lit l : op.controls)
             if (!l.positive()) inner.x(l.wire());
         for (const Op& o : tmp) to_rotation_target(o, s, c, t);
