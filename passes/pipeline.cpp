@@ -1,6 +1,7 @@
 // The pipelines for each -O level, written out in one place, and the pass runner.
 #include "passes/pipeline.h"
 
+#include <sys/resource.h>
 #include <time.h>
 
 #include <chrono>
@@ -19,6 +20,12 @@ double thread_cpu_seconds() {
     timespec ts{};
     clock_gettime(CLOCK_THREAD_CPUTIME_ID, &ts);
     return double(ts.tv_sec) + double(ts.tv_nsec) * 1e-9;
+}
+
+/// The process's peak resident set so far in KiB (Linux reports ru_maxrss in KiB).
+long peak_rss_kib() {
+    rusage ru{};
+    return getrusage(RUSAGE_SELF, &ru) == 0 ? ru.ru_maxrss : 0;
 }
 
 }  // namespace
@@ -116,6 +123,7 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
         rec.result = info->run(c, opts);
         rec.cpu_seconds = thread_cpu_seconds() - cpu0;
         rec.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+        rec.peak_rss_kib = peak_rss_kib();
         rec.changed = rec.result.changed;
         if (rec.changed) {
             ir::verify(c);

@@ -22,6 +22,9 @@ struct PassRecord {
     int64_t cnot_before = 0, cnot_after = 0;
     double seconds = 0;      ///< wall time of the pass
     double cpu_seconds = 0;  ///< CPU time of the pass on its thread (meaningful on a busy machine)
+    /// The process's peak resident memory so far, read after the pass (KiB; 0 where the system
+    /// does not tell). It is the whole process's: meaningful when one compile runs at a time.
+    long peak_rss_kib = 0;
     std::string checked_by;  ///< equivalence engine that validated this pass under --verify ("" = unchecked)
     PassResult result;
 };

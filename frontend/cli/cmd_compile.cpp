@@ -116,7 +116,8 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
                 std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
                                                r.name, r.ops_before, r.ops_after, r.t_before, r.t_after,
                                                r.cnot_before, r.cnot_after);
-                if (a.time_passes) line += fmt::format(" {:9.3f} ms", r.seconds * 1e3);
+                if (a.time_passes)
+                    line += fmt::format(" {:9.3f} ms  peak {:>6} MiB", r.seconds * 1e3, r.peak_rss_kib / 1024);
                 if (a.stats)
                     for (const auto& [k, v] : r.result.stats) line += fmt::format(" {}={}", k, v);
                 err << line << "\n";

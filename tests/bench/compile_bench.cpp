@@ -31,6 +31,7 @@ struct PassTime {
     std::string name;
     double seconds = 0, cpu_seconds = 0;
     uint64_t ops_before = 0;
+    long peak_kib = 0;  ///< the child's peak RSS after the pass
 };
 
 struct Measure {
@@ -118,7 +119,7 @@ void measure_child(const std::string& kind, uint64_t n, bool compile, int fd) {
     m.peak_kib = ru.ru_maxrss;
     std::string out = fmt::format("{} {} {} {} {} {} {} {} {} {}\n", m.parse_s, m.parse_cpu, m.count_s, m.compile_s,
                                   m.compile_cpu, m.bytes, m.ops, m.ops_out, m.peak_kib, records.size());
-    for (auto& rec : records) out += fmt::format("{} {} {} {}\n", rec.name, rec.seconds, rec.cpu_seconds, rec.ops_before);
+    for (auto& rec : records) out += fmt::format("{} {} {} {} {}\n", rec.name, rec.seconds, rec.cpu_seconds, rec.ops_before, rec.peak_rss_kib);
     ssize_t w = write(fd, out.data(), out.size());
     (void)w;
 }
@@ -182,6 +183,7 @@ std::string measure(const std::string& kind, uint64_t n, const Limits& limits, M
         t.seconds = std::strtod(p, &p);
         t.cpu_seconds = std::strtod(p, &p);
         t.ops_before = std::strtoull(p, &p, 10);
+        t.peak_kib = std::strtol(p, &p, 10);
         m.passes.push_back(t);
     }
     return "";
@@ -304,8 +306,9 @@ int main(int argc, char** argv) {
         all.emplace_back(cs.kind, std::move(done));
     }
     std::printf("\nPer pass at the largest size that ran: CPU seconds, ops entering the pass per CPU second, and "
-                "scaling = CPU t(big)/t(small) between the two largest sizes (their ratio in brackets)\n\n");
-    std::printf("| input | pass | CPU s | ops/s | scaling |\n|---|---|---|---|---|\n");
+                "scaling = CPU t(big)/t(small) between the two largest sizes (their ratio in brackets), and the "
+                "run's peak RSS so far per input op, read after the pass\n\n");
+    std::printf("| input | pass | CPU s | ops/s | scaling | peak bytes/op so far |\n|---|---|---|---|---|---|\n");
     for (auto& [kind, ms] : all) {
         if (ms.empty()) continue;
         const Measure& big = ms.back();
@@ -315,12 +318,14 @@ int main(int argc, char** argv) {
             std::string sc = "-";
             if (small && i < small->passes.size())
                 sc = scaling(small->passes[i].cpu_seconds, pt.cpu_seconds, small->ops, big.ops);
-            std::printf("| %s | %s | %.3f | %.3g | %s |\n", kind.c_str(), pt.name.c_str(), pt.cpu_seconds,
-                        double(pt.ops_before) / std::max(pt.cpu_seconds, 1e-9), sc.c_str());
+            std::printf("| %s | %s | %.3f | %.3g | %s | %.0f |\n", kind.c_str(), pt.name.c_str(), pt.cpu_seconds,
+                        double(pt.ops_before) / std::max(pt.cpu_seconds, 1e-9), sc.c_str(),
+                        double(pt.peak_kib) * 1024.0 / double(std::max<uint64_t>(big.ops, 1)));
         }
         std::string sc = small ? scaling(small->compile_cpu, big.compile_cpu, small->ops, big.ops) : "-";
-        std::printf("| %s | (whole compile) | %.3f | %.3g | %s |\n", kind.c_str(), big.compile_cpu,
-                    double(big.ops) / std::max(big.compile_cpu, 1e-9), sc.c_str());
+        std::printf("| %s | (whole compile) | %.3f | %.3g | %s | %.0f |\n", kind.c_str(), big.compile_cpu,
+                    double(big.ops) / std::max(big.compile_cpu, 1e-9), sc.c_str(),
+                    double(big.peak_kib) * 1024.0 / double(std::max<uint64_t>(big.ops, 1)));
     }
     return 0;
 }

@@ -64,6 +64,7 @@ with tempfile.TemporaryDirectory() as tmp:
     lines = [l for l in err.splitlines() if l.split() and l.split()[0] in ("normalize", "cancel", "merge-controls")]
     check([l.split()[0] for l in lines] == ["normalize", "cancel", "merge-controls"], f"one line per pass in order: {lines}")
     check(all(" ms" in l for l in lines), "--time-passes prints a time on every line")
+    check(all(" MiB" in l for l in lines), "--time-passes prints the peak memory on every line")
     check(any("inverse-pairs=" in l for l in lines), "--stats prints the cancel counters")
     check(any("controls-merged=" in l for l in lines), "--stats prints the merge-controls counters")
     check("# after cancel" in err, "--dump-after=cancel prints the circuit after cancel")
