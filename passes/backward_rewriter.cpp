@@ -2,6 +2,7 @@
 #include "passes/backward_rewriter.h"
 
 #include <algorithm>
+#include <bit>
 #include <optional>
 #include <unordered_set>
 
@@ -31,9 +32,59 @@ struct WireEntry {
 
 }  // namespace
 
+/// The per-wire lists, all in one arena: wire w's entries form a ring of a power-of-two capacity
+/// that starts empty and doubles (moving to the arena's end) up to `max_ring`, which is above the
+/// number of entries a walk can step over on one wire (4 * window); a full ring of that size
+/// overwrites its oldest entry, which no walk can reach. One arena instead of a vector per wire
+/// keeps the lists' tails in few (huge) pages, and the memory bounded by wires * max_ring.
 struct RewriteBuffers::Lists {
-    std::vector<std::vector<WireEntry>> on_wire;  ///< by wire: entries in placement order
-    std::vector<uint8_t> state;                   ///< by position: kLive, kWall, kStale
+    struct Ring {
+        uint64_t offset = 0;  ///< first slot in the arena
+        uint32_t capacity = 0;
+        uint32_t length = 0;  ///< entries ever pushed (or inserted) on the wire; the last `capacity` are kept
+    };
+    std::vector<WireEntry> arena;
+    std::vector<Ring> rings;    ///< by wire
+    std::vector<uint8_t> state;  ///< by position: kLive, kWall, kStale
+    uint32_t max_ring = 0;
+
+    void reset(uint32_t wires, uint32_t max_ring_entries) {
+        arena.clear();
+        rings.assign(wires, Ring{});
+        max_ring = max_ring_entries;
+    }
+    /// Oldest logical index still kept on the wire.
+    uint32_t first(const Ring& r) const { return r.length > r.capacity ? r.length - r.capacity : 0; }
+    WireEntry& at(const Ring& r, uint32_t k) { return arena[r.offset + (k & (r.capacity - 1))]; }
+    void grow(Ring& r) {
+        const uint32_t fresh = r.capacity == 0 ? 8 : 2 * r.capacity;
+        const uint64_t offset = arena.size();
+        arena.resize(offset + fresh);
+        for (uint32_t k = 0; k < r.length; ++k) arena[offset + (k & (fresh - 1))] = at(r, k);
+        r.offset = offset;
+        r.capacity = fresh;
+    }
+    void push(uint32_t w, const WireEntry& e) {
+        Ring& r = rings[w];
+        if (r.length == r.capacity && r.capacity < max_ring) grow(r);
+        at(r, r.length++) = e;
+    }
+    /// Inserts `e` in position order (its position is below the last entry's); nothing when the
+    /// wire already has an entry at that position.
+    void insert_sorted(uint32_t w, const WireEntry& e) {
+        Ring& r = rings[w];
+        uint32_t lo = first(r), hi = r.length;
+        while (lo < hi) {  // first index whose position is >= e.pos
+            const uint32_t mid = lo + (hi - lo) / 2;
+            if (at(r, mid).pos < e.pos) lo = mid + 1;
+            else hi = mid;
+        }
+        if (lo < r.length && at(r, lo).pos == e.pos) return;
+        if (r.length == r.capacity && r.capacity < max_ring) grow(r);
+        for (uint32_t k = r.length; k > lo; --k) at(r, k) = at(r, k - 1);  // a full ring drops its oldest
+        at(r, lo) = e;
+        ++r.length;
+    }
 };
 
 RewriteBuffers::RewriteBuffers() : lists(std::make_unique<Lists>()) {}
@@ -66,10 +117,10 @@ public:
     Rewriter(ir::Circuit& c, const CombineRule& rule, PassResult& result, RewriteBuffers::Lists& lists,
              RewriteLimits limits, bool right_to_left)
         : c_(c), rule_(rule), result_(result), limits_(limits), right_to_left_(right_to_left),
-          n_(uint32_t(c.ops.size())), on_wire_(lists.on_wire), state_(lists.state) {
-        // The lists are cleared, not freed: a later sweep reuses the capacity an earlier one grew.
-        on_wire_.resize(c.num_qubits());
-        for (std::vector<WireEntry>& list : on_wire_) list.clear();
+          n_(uint32_t(c.ops.size())), lists_(lists), state_(lists.state) {
+        // The arena is cleared, not freed: a later sweep reuses the capacity an earlier one grew.
+        // A walk steps over at most 4 * window entries of one wire (see place()).
+        lists_.reset(c.num_qubits(), uint32_t(std::bit_ceil(4 * uint64_t(limits.window) + 1)));
     }
 
     bool run() {
@@ -119,7 +170,7 @@ private:
     }
 
     void push_entry(uint32_t p, const Op& op, uint32_t w, uint16_t count) {
-        on_wire_[w].push_back(WireEntry{p, wire_role(op, w), op.kind, count});
+        lists_.push(w, WireEntry{p, wire_role(op, w), op.kind, count});
     }
 
     static uint16_t wire_count(const Op& op) {
@@ -137,9 +188,7 @@ private:
 
     /// Adds position p to wire w's list (p is below the list's end: the entry goes in sorted).
     void add_wire(uint32_t p, uint32_t w, const Op& op) {
-        std::vector<WireEntry>& v = on_wire_[w];
-        auto it = std::lower_bound(v.begin(), v.end(), p, [](const WireEntry& e, uint32_t q) { return e.pos < q; });
-        if (it == v.end() || it->pos != p) v.insert(it, WireEntry{p, wire_role(op, w), op.kind, wire_count(op)});
+        lists_.insert_sorted(w, WireEntry{p, wire_role(op, w), op.kind, wire_count(op)});
     }
 
     void note_pairs(const Op& a, const Op& b, Combined how) {
@@ -161,10 +210,20 @@ private:
         std::vector<uint32_t>& ws = mover_wires_;
         ws.clear();
         op.wires(ws);
+        // Per mover wire: the cursor (a logical index into the wire's ring, walked down to the
+        // ring's oldest kept entry), the ring's slots and mask. Nothing is pushed or inserted
+        // while the walk runs, so the arena does not move under `slots_`.
         cursors_.resize(ws.size());
+        ends_.resize(ws.size());
+        slots_.resize(ws.size());
+        masks_.resize(ws.size());
         roles_.resize(ws.size());
         for (size_t i = 0; i < ws.size(); ++i) {
-            cursors_[i] = on_wire_[ws[i]].size();
+            const RewriteBuffers::Lists::Ring& r = lists_.rings[ws[i]];
+            cursors_[i] = r.length;
+            ends_[i] = lists_.first(r);
+            slots_[i] = r.capacity ? &lists_.arena[r.offset] : nullptr;
+            masks_[i] = r.capacity - 1;
             roles_[i] = wire_role(op, ws[i]);
         }
         const OpShape mover_shape{op.kind, wire_count(op)};
@@ -175,8 +234,8 @@ private:
         while (visited < limits_.window && steps < 4 * limits_.window) {
             uint32_t j = kNone;
             for (size_t i = 0; i < ws.size(); ++i)
-                if (cursors_[i] > 0) {
-                    const uint32_t cand = on_wire_[ws[i]][cursors_[i] - 1].pos;
+                if (cursors_[i] > ends_[i]) {
+                    const uint32_t cand = slots_[i][(cursors_[i] - 1) & masks_[i]].pos;
                     if (j == kNone || cand > j) j = cand;
                 }
             if (j == kNone || (fence_ != kNone && j <= fence_)) break;
@@ -190,8 +249,8 @@ private:
             const WireEntry* entry = nullptr;
             uint32_t shared_wire = 0;
             for (size_t i = 0; i < ws.size(); ++i) {
-                if (cursors_[i] == 0) continue;
-                const WireEntry& en = on_wire_[ws[i]][cursors_[i] - 1];
+                if (cursors_[i] == ends_[i]) continue;
+                const WireEntry& en = slots_[i][(cursors_[i] - 1) & masks_[i]];
                 if (en.pos != j) continue;
                 --cursors_[i];
                 ++shared;
@@ -323,11 +382,12 @@ private:
     RewriteLimits limits_;
     bool right_to_left_;
     uint32_t n_;
-    std::vector<std::vector<WireEntry>>& on_wire_;  ///< by wire: entries in placement order
-    std::vector<uint8_t>& state_;                   ///< by position: kLive, kWall, kStale
+    RewriteBuffers::Lists& lists_;  ///< by wire: entries in placement order
+    std::vector<uint8_t>& state_;   ///< by position: kLive, kWall, kStale
     std::vector<PendingKick> kicked_;  ///< kickback ops, each following the op placed at its slot
     std::vector<uint32_t> wires_, added_, mover_wires_;
-    std::vector<size_t> cursors_;
+    std::vector<uint32_t> cursors_, ends_, masks_;
+    std::vector<const WireEntry*> slots_;
     std::vector<WireRole> roles_;
     Op moved_;  ///< the mover once rewritten (storage reused by every walk)
     std::unordered_set<uint32_t> broken_;

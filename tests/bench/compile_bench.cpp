@@ -189,6 +189,35 @@ std::string measure(const std::string& kind, uint64_t n, const Limits& limits, M
     return "";
 }
 
+double median(std::vector<double> v) {
+    std::sort(v.begin(), v.end());
+    const size_t k = v.size();
+    return k == 0 ? 0 : k % 2 ? v[k / 2] : 0.5 * (v[k / 2 - 1] + v[k / 2]);
+}
+
+/// The per-field median of repeated measurements of one input (the same generated circuit, so the
+/// sizes, op counts and pass lists agree).
+Measure median_of(const std::vector<Measure>& runs) {
+    Measure m = runs.front();
+    auto field = [&](auto get) {
+        std::vector<double> v;
+        for (const Measure& r : runs) v.push_back(double(get(r)));
+        return median(v);
+    };
+    m.parse_s = field([](const Measure& r) { return r.parse_s; });
+    m.parse_cpu = field([](const Measure& r) { return r.parse_cpu; });
+    m.count_s = field([](const Measure& r) { return r.count_s; });
+    m.compile_s = field([](const Measure& r) { return r.compile_s; });
+    m.compile_cpu = field([](const Measure& r) { return r.compile_cpu; });
+    m.peak_kib = long(field([](const Measure& r) { return r.peak_kib; }));
+    for (size_t i = 0; i < m.passes.size(); ++i) {
+        m.passes[i].seconds = field([&](const Measure& r) { return r.passes[i].seconds; });
+        m.passes[i].cpu_seconds = field([&](const Measure& r) { return r.passes[i].cpu_seconds; });
+        m.passes[i].peak_kib = long(field([&](const Measure& r) { return r.passes[i].peak_kib; }));
+    }
+    return m;
+}
+
 /// "12.3 (x10)": t(big)/t(small) and the ratio of their input sizes.
 std::string scaling(double small_t, double big_t, uint64_t small_ops, uint64_t big_ops) {
     if (small_t <= 0) return "-";
@@ -202,6 +231,8 @@ void usage() {
         "       whittle_bench_compile --write KIND N FILE\n"
         "  KIND: clifford-t, clifford-t-wq, high-level, adder, adder-wq, multiplier\n"
         "  --sizes N,N,...    the sizes for every KIND run (ops, or bits for adders and multipliers)\n"
+        "  --repeat K         measure every size K times, the sizes taking turns; figures are the\n"
+        "                     medians (default 1)\n"
         "  --max-ops N        skip sizes with more than N input ops\n"
         "  --mem-limit-gib G  address-space limit of each measurement (default 8)\n"
         "  --timeout S        time limit of each measurement in seconds (default 900)\n"
@@ -220,6 +251,7 @@ int main(int argc, char** argv) {
                                {"multiplier", {32, 128, 512}}};
     std::string only;
     uint64_t max_ops = UINT64_MAX;
+    unsigned repeat = 1;
     Limits limits;
     for (int i = 1; i < argc; ++i) {
         std::string a = argv[i];
@@ -238,6 +270,8 @@ int main(int argc, char** argv) {
                 ++p;
             }
             for (Case& cs : cases) cs.sizes = list;
+        } else if (a == "--repeat" && has_value) {
+            repeat = unsigned(std::max(1ul, std::strtoul(argv[++i], nullptr, 10)));
         } else if (a == "--max-ops" && has_value) {
             max_ops = std::strtoull(argv[++i], nullptr, 10);
         } else if (a == "--mem-limit-gib" && has_value) {
@@ -266,38 +300,58 @@ int main(int argc, char** argv) {
         }
     }
     std::printf("Wall and CPU seconds (CPU = user + system of the measuring process); peak RSS of the whole run "
-                "(generation, parse, compile) per input op.\n\n");
+                "(generation, parse, compile) per input op; medians of %u run(s) per size, with the range of the "
+                "compile's CPU seconds.\n\n", repeat);
     std::printf("| input | format | size | ops in | ops out | parse MB/s (wall) | parse MB/s (CPU) | count s | "
-                "compile s (wall) | compile s (CPU) | compile/count (CPU) | peak bytes/op |\n");
-    std::printf("|---|---|---|---|---|---|---|---|---|---|---|---|\n");
+                "compile s (wall) | compile s (CPU) | CPU range | compile/count (CPU) | peak bytes/op |\n");
+    std::printf("|---|---|---|---|---|---|---|---|---|---|---|---|---|\n");
     std::vector<std::pair<std::string, std::vector<Measure>>> all;
     for (const Case& cs : cases) {
         if (!only.empty() && cs.kind != only) continue;
         std::vector<Measure> done;
-        for (uint64_t n : cs.sizes) {
-            if (estimated_ops(cs.kind, n) > max_ops) continue;
-            Measure m;
-            std::string why = measure(cs.kind, n, limits, m);
+        // The sizes take turns (size 1, size 2, ..., size 1, ...), so a slow spell of the machine
+        // does not fall on one size's runs alone.
+        std::vector<uint64_t> sizes;
+        for (uint64_t n : cs.sizes)
+            if (estimated_ops(cs.kind, n) <= max_ops) sizes.push_back(n);
+        std::vector<std::vector<Measure>> runs(sizes.size());
+        std::vector<std::string> failed(sizes.size());
+        for (unsigned rep = 0; rep < repeat; ++rep)
+            for (size_t k = 0; k < sizes.size(); ++k) {
+                if (!failed[k].empty()) continue;
+                Measure m;
+                failed[k] = measure(cs.kind, sizes[k], limits, m);
+                if (failed[k].empty()) runs[k].push_back(std::move(m));
+            }
+        for (size_t k = 0; k < sizes.size(); ++k) {
+            const uint64_t n = sizes[k];
+            const std::string& why = failed[k];
             if (!why.empty()) {
-                std::printf("| %s | %s | %llu | %s | | | | | | | | |\n", cs.kind.c_str(), format_name(cs.kind),
+                std::printf("| %s | %s | %llu | %s | | | | | | | | | |\n", cs.kind.c_str(), format_name(cs.kind),
                             (unsigned long long)n, why.c_str());
                 std::fflush(stdout);
                 continue;
             }
+            Measure m = median_of(runs[k]);
+            double lo = runs[k].front().compile_cpu, hi = lo;
+            for (const Measure& r : runs[k]) {
+                lo = std::min(lo, r.compile_cpu);
+                hi = std::max(hi, r.compile_cpu);
+            }
             // `whittle count` is parse plus count; the goal compares the compile's CPU time with it.
             const double count_cpu = m.parse_cpu + (m.count_s - m.parse_s);
             if (m.passes.empty()) {
-                std::printf("| %s | %s | %llu | %llu | (parse only) | %.1f | %.1f | %.3f | - | - | - | %.0f |\n",
+                std::printf("| %s | %s | %llu | %llu | (parse only) | %.1f | %.1f | %.3f | - | - | - | - | %.0f |\n",
                             cs.kind.c_str(), format_name(cs.kind), (unsigned long long)n, (unsigned long long)m.ops,
                             m.bytes / 1e6 / std::max(m.parse_s, 1e-9), m.bytes / 1e6 / std::max(m.parse_cpu, 1e-9),
                             m.count_s, double(m.peak_kib) * 1024.0 / double(std::max<uint64_t>(m.ops, 1)));
                 std::fflush(stdout);
                 continue;
             }
-            std::printf("| %s | %s | %llu | %llu | %llu | %.1f | %.1f | %.3f | %.2f | %.2f | %.1f | %.0f |\n",
+            std::printf("| %s | %s | %llu | %llu | %llu | %.1f | %.1f | %.3f | %.2f | %.2f | %.2f-%.2f | %.1f | %.0f |\n",
                         cs.kind.c_str(), format_name(cs.kind), (unsigned long long)n, (unsigned long long)m.ops,
                         (unsigned long long)m.ops_out, m.bytes / 1e6 / std::max(m.parse_s, 1e-9),
-                        m.bytes / 1e6 / std::max(m.parse_cpu, 1e-9), m.count_s, m.compile_s, m.compile_cpu,
+                        m.bytes / 1e6 / std::max(m.parse_cpu, 1e-9), m.count_s, m.compile_s, m.compile_cpu, lo, hi,
                         (m.parse_cpu + m.compile_cpu) / std::max(count_cpu, 1e-9),
                         double(m.peak_kib) * 1024.0 / double(std::max<uint64_t>(m.ops, 1)));
             std::fflush(stdout);
