@@ -127,12 +127,6 @@ bool Op::is_xtype() const {
     return (kind == OpKind::X || kind == OpKind::Swap) && !is_conditioned();
 }
 
-void Op::wires(std::vector<uint32_t>& out) const {
-    if (target != kNoWire) out.push_back(target);
-    if (target2 != kNoWire) out.push_back(target2);
-    for (Lit l : controls) out.push_back(l.wire());
-}
-
 std::vector<uint32_t> Op::wires() const {
     std::vector<uint32_t> w;
     wires(w);

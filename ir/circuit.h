@@ -161,8 +161,13 @@ struct Op {
     bool is_diagonal() const;
     /// Permutation of basis states (X-type: X/CNOT/Toffoli/MCX and swaps, unconditioned).
     bool is_xtype() const;
-    /// Every wire the op touches (target(s), controls, parity or barrier wires), in no set order.
-    void wires(std::vector<uint32_t>& out) const;
+    /// Every wire the op touches (target(s), controls, parity or barrier wires), appended in the
+    /// order target, target2, controls (inline: every pass calls it once per op).
+    void wires(std::vector<uint32_t>& out) const {
+        if (target != kNoWire) out.push_back(target);
+        if (target2 != kNoWire) out.push_back(target2);
+        for (Lit l : controls) out.push_back(l.wire());
+    }
     std::vector<uint32_t> wires() const;
 
 private:

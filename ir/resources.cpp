@@ -138,4 +138,14 @@ Resources count_resources(const Circuit& c) {
     return r;
 }
 
+TAndCnotCount count_t_and_cnot(const Circuit& c) {
+    TAndCnotCount r;
+    for (const Op& op : c.ops) {
+        if (op.kind == OpKind::Barrier) continue;
+        if (is_t_like(op)) ++r.t_count;
+        if (op.kind == OpKind::X && op.controls.size() == 1) ++r.cnot_count;
+    }
+    return r;
+}
+
 }  // namespace whittle::ir

@@ -31,4 +31,11 @@ std::string gate_name(const Op& op);
 
 Resources count_resources(const Circuit& c);
 
+/// The T-count and CNOT count alone, as count_resources counts them (the pass runner records these
+/// at every pass boundary; no depth, no table by gate name).
+struct TAndCnotCount {
+    uint64_t t_count = 0, cnot_count = 0;
+};
+TAndCnotCount count_t_and_cnot(const Circuit& c);
+
 }  // namespace whittle::ir

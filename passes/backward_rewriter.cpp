@@ -213,11 +213,13 @@ private:
         // Per mover wire: the cursor (a logical index into the wire's ring, walked down to the
         // ring's oldest kept entry), the ring's slots and mask. Nothing is pushed or inserted
         // while the walk runs, so the arena does not move under `slots_`.
-        cursors_.resize(ws.size());
-        ends_.resize(ws.size());
-        slots_.resize(ws.size());
-        masks_.resize(ws.size());
-        roles_.resize(ws.size());
+        if (cursors_.size() < ws.size()) {  // grown once to the widest op, never shrunk
+            cursors_.resize(ws.size());
+            ends_.resize(ws.size());
+            slots_.resize(ws.size());
+            masks_.resize(ws.size());
+            roles_.resize(ws.size());
+        }
         for (size_t i = 0; i < ws.size(); ++i) {
             const RewriteBuffers::Lists::Ring& r = lists_.rings[ws[i]];
             cursors_[i] = r.length;
@@ -231,14 +233,19 @@ private:
         ir::Angle g;
         std::optional<PendingKick> kick;
         uint32_t visited = 0, steps = 0;
+        // The next position to visit: the largest among the cursors' entries (kNone: none left).
+        // The lists do not change during the walk, so each step finds the following one while it
+        // steps the cursors.
+        uint32_t next = kNone;
+        for (size_t i = 0; i < ws.size(); ++i)
+            if (cursors_[i] > ends_[i]) {
+                const uint32_t cand = slots_[i][(cursors_[i] - 1) & masks_[i]].pos;
+                if (next == kNone || cand > next) next = cand;
+            }
         while (visited < limits_.window && steps < 4 * limits_.window) {
-            uint32_t j = kNone;
-            for (size_t i = 0; i < ws.size(); ++i)
-                if (cursors_[i] > ends_[i]) {
-                    const uint32_t cand = slots_[i][(cursors_[i] - 1) & masks_[i]].pos;
-                    if (j == kNone || cand > j) j = cand;
-                }
+            const uint32_t j = next;
             if (j == kNone || (fence_ != kNone && j <= fence_)) break;
+            next = kNone;
             // Step every cursor at j over it; `agree`: on every shared wire both ops have one role
             // (not Other), so they commute (commutation.h) unless the rule combines them. Without
             // agreement they can still commute when they are orthogonal (a shared wire both read
@@ -251,8 +258,15 @@ private:
             for (size_t i = 0; i < ws.size(); ++i) {
                 if (cursors_[i] == ends_[i]) continue;
                 const WireEntry& en = slots_[i][(cursors_[i] - 1) & masks_[i]];
-                if (en.pos != j) continue;
+                if (en.pos != j) {
+                    if (next == kNone || en.pos > next) next = en.pos;
+                    continue;
+                }
                 --cursors_[i];
+                if (cursors_[i] > ends_[i]) {
+                    const uint32_t cand = slots_[i][(cursors_[i] - 1) & masks_[i]].pos;
+                    if (next == kNone || cand > next) next = cand;
+                }
                 ++shared;
                 entry = &en;
                 shared_wire = ws[i];
@@ -339,7 +353,10 @@ private:
             if (estimated_t_cost(extra) > pair_t_cost(*mover, *mover)) break;
             kick = PendingKick{j, std::move(extra)};
         }
-        append(p, op);
+        // The mover stays: its entries, with the roles found above (op.wires() lists the wires in
+        // append()'s order: target, target2, controls).
+        const uint16_t count = wire_count(op);
+        for (size_t i = 0; i < ws.size(); ++i) lists_.push(ws[i], WireEntry{p, roles_[i], op.kind, count});
     }
 
     /// From the earlier op's entry alone: can a kickback between it and the mover pay? With

@@ -103,7 +103,7 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
     std::vector<PassRecord> records;
     // One count per pass boundary: a pass's "after" is the next one's "before", and a pass that
     // reports no change (PassResult::changed is false exactly then) leaves both alone.
-    ir::Resources before;
+    ir::TAndCnotCount before;
     bool counted = false;
     for (size_t i = 0; i < names.size(); ++i) {
         const PassInfo* info = find_pass(names[i]);
@@ -111,7 +111,7 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
         if (hooks.progress) hooks.progress(info->name, i, names.size());
         PassRecord rec;
         rec.name = info->name;
-        if (!counted) before = ir::count_resources(c);
+        if (!counted) before = ir::count_t_and_cnot(c);
         counted = true;
         rec.ops_before = c.ops.size();
         rec.t_before = int64_t(before.t_count);
@@ -127,11 +127,11 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
         rec.changed = rec.result.changed;
         if (rec.changed) {
             ir::verify(c);
-            before = ir::count_resources(c);
+            before = ir::count_t_and_cnot(c);
         } else if (c.ops.size() != rec.ops_before) {
             throw InternalError(fmt::format("pass '{}' changed the op count but reported no change", rec.name));
         }
-        const ir::Resources& after = before;
+        const ir::TAndCnotCount& after = before;
         rec.ops_after = c.ops.size();
         rec.t_after = int64_t(after.t_count);
         rec.cnot_after = int64_t(after.cnot_count);

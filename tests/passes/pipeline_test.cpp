@@ -107,3 +107,27 @@ TEST_CASE("-O2 on the output of -O2 never adds T on random high-level circuits (
         CHECK(count_resources(twice).t_count <= count_resources(once).t_count);
     }
 }
+
+TEST_CASE("the runner's per-pass T and CNOT records equal a full resource count of the circuit after the pass") {
+    std::mt19937_64 rng(17);
+    RandomSpec spec;
+    spec.max_qubits = 8;
+    spec.max_ops = 80;
+    for (int i = 0; i < 60; ++i) {
+        Circuit c = random_circuit(rng, spec);
+        passes::PassOptions o;
+        o.target = i % 2 ? "clifford+t" : "";
+        o.level = 2;
+        // Run the pipeline one pass at a time, so the circuit after each pass can be counted in full.
+        for (const std::string& name : passes::pipeline_for(o)) {
+            const Resources before = count_resources(c);
+            const auto recs = passes::run_passes(c, {name}, o);
+            REQUIRE(recs.size() == 1);
+            const Resources after = count_resources(c);
+            CHECK(uint64_t(recs[0].t_before) == before.t_count);
+            CHECK(uint64_t(recs[0].cnot_before) == before.cnot_count);
+            CHECK(uint64_t(recs[0].t_after) == after.t_count);
+            CHECK(uint64_t(recs[0].cnot_after) == after.cnot_count);
+        }
+    }
+}
