@@ -99,11 +99,19 @@ enum : uint8_t {
     kStale = 4,  ///< a combine rule changed the op: its wire entries may no longer describe it
 };
 
-/// A kickback move made by the walk in progress: `extra` goes right after the op placed at
-/// position `slot` (in reading order) if it pays.
+/// A kickback op kept: `extra` goes right after the op placed at position `slot` (in reading order).
 struct PendingKick {
     uint32_t slot;
     Op extra;
+};
+
+/// A kickback move made by the walk in progress, priced but not built (most walks end without
+/// using it): the mover crossed the op placed at `slot`, and the extra op would cost `t_cost`.
+/// `mover_copied`: the mover had been rewritten by then, and Rewriter::kick_mover_ holds it as it was.
+struct WalkKick {
+    uint32_t slot;
+    uint64_t t_cost;
+    bool mover_copied;
 };
 
 /// The ops are rewritten where they lie in Circuit::ops: a walk reads earlier ops there, a combine
@@ -231,7 +239,7 @@ private:
         const OpShape mover_shape{op.kind, wire_count(op)};
         const Op* mover = &op;  // points at moved_ once a rewrite made a copy
         ir::Angle g;
-        std::optional<PendingKick> kick;
+        std::optional<WalkKick> kick;
         uint32_t visited = 0, steps = 0;
         // The next position to visit: the largest among the cursors' entries (kNone: none left).
         // The lists do not change during the walk, so each step finds the following one while it
@@ -311,10 +319,10 @@ private:
                     const Combined how = rule_.combine(trial, *mover, g2, added_, scratch);
                     if (how != Combined::No) {
                         const bool pays =
-                            how == Combined::Vanished && estimated_t_cost(kick->extra) <= pair_t_cost(e, *mover);
+                            how == Combined::Vanished && kick->t_cost <= pair_t_cost(e, *mover);
                         if (!pays) break;
                         for (const auto& [name, n] : scratch.stats) result_.count(name, n);
-                        commit_kick(*kick);
+                        commit_kick(*kick, op);
                         note_pairs(e, *mover, how);
                         state_[j] &= uint8_t(~kLive);
                         state_[p] &= uint8_t(~kLive);
@@ -345,13 +353,15 @@ private:
             } else if (commutes_unchanged(e, *mover)) {
                 continue;
             }
-            Op extra;
-            if (!limits_.kickback || kick || !kickback_move(e, *mover, extra)) break;
+            uint64_t extra_t_cost = 0;
+            if (!limits_.kickback || kick || !kickback_cost(e, *mover, extra_t_cost)) break;
             // Only a vanishing pair pays for the extra op, and its price is known now (a vanishing
             // earlier op has the mover's kind, targets and control count: CombineRule). A kick
             // that cannot pay would only let the walk end without a change.
-            if (estimated_t_cost(extra) > pair_t_cost(*mover, *mover)) break;
-            kick = PendingKick{j, std::move(extra)};
+            if (extra_t_cost > pair_t_cost(*mover, *mover)) break;
+            const bool copied = mover != &op;
+            if (copied) kick_mover_ = *mover;
+            kick = WalkKick{j, extra_t_cost, copied};
         }
         // The mover stays: its entries, with the roles found above (op.wires() lists the wires in
         // append()'s order: target, target2, controls).
@@ -381,8 +391,13 @@ private:
         return estimated_t_cost(a) + estimated_t_cost(b);
     }
 
-    void commit_kick(PendingKick& k) {
+    /// Builds and keeps the walk's kickback op (`op`: the mover as placed).
+    void commit_kick(const WalkKick& walk_kick, const Op& op) {
+        PendingKick k{walk_kick.slot, Op()};
         Op& from = c_.ops[index_of(k.slot)];
+        // Neither op changed since the walk priced the move (combine rules ran on copies since).
+        const bool built = kickback_move(from, walk_kick.mover_copied ? kick_mover_ : op, k.extra);
+        WHITTLE_ASSERT(built && "a priced kickback can be built");
         // The kicked-from op now has a new neighbour its compute/uncompute partner does not know of.
         if (from.pair) broken_.insert(from.pair);
         wires_.clear();
@@ -407,6 +422,7 @@ private:
     std::vector<const WireEntry*> slots_;
     std::vector<WireRole> roles_;
     Op moved_;  ///< the mover once rewritten (storage reused by every walk)
+    Op kick_mover_;  ///< the rewritten mover as it was when the walk's kickback was priced
     std::unordered_set<uint32_t> broken_;
     uint32_t fence_ = kNone;
     ir::Angle global_;

@@ -50,11 +50,66 @@ bool kick(const Op& x, const Op& other, Op& extra) {
 
 uint64_t toffoli_chain_t(size_t controls) { return controls < 2 ? 0 : 7 * (2 * uint64_t(controls) - 3); }
 
+/// estimated_t_cost of an op of kind `kind` with `k` controls (`involution`: is_involution holds).
+uint64_t t_cost_of(OpKind kind, size_t k, bool involution) {
+    switch (kind) {
+    case OpKind::X:
+    case OpKind::Y: return toffoli_chain_t(k);
+    case OpKind::Phase: return involution && k > 0 ? toffoli_chain_t(k - 1) : 0;
+    case OpKind::H:
+    case OpKind::Swap: return k == 0 ? 0 : toffoli_chain_t(k + 1);
+    default: return 0;
+    }
+}
+
+/// kick() deciding only whether it succeeds and how many controls E gets (E has `other`'s kind
+/// and angle, so is_involution(E) == is_involution(other), which kick() requires).
+bool kick_controls(const Op& x, const Op& other, size_t& controls) {
+    if (x.kind != OpKind::X || x.controls.empty() || !is_involution(other)) return false;
+    const uint32_t t = x.target;
+    if (other.target == t || other.target2 == t) return false;
+    int at = -1;
+    for (size_t i = 0; i < other.controls.size(); ++i)
+        if (other.controls[i].wire() == t) {
+            if (at >= 0) return false;
+            at = int(i);
+        }
+    if (at < 0) return false;
+    for (Lit c : x.controls)
+        if (c.wire() == other.target || c.wire() == other.target2) return false;
+    // E's controls: other's without the one on t, then each of x's that is not there yet (x's
+    // controls are on distinct wires, none of them t, so only other's can already hold a wire).
+    controls = other.controls.size() - 1;
+    for (Lit c : x.controls) {
+        bool found = false;
+        for (size_t i = 0; i < other.controls.size(); ++i) {
+            if (int(i) == at || other.controls[i].wire() != c.wire()) continue;
+            if (other.controls[i] != c) return false;
+            found = true;
+            break;
+        }
+        if (!found) ++controls;
+    }
+    return true;
+}
+
 }  // namespace
 
 bool kickback_move(const Op& earlier, const Op& mover, Op& extra) {
     if (is_fence(earlier) || is_fence(mover)) return false;
     return kick(earlier, mover, extra) || kick(mover, earlier, extra);
+}
+
+bool kickback_cost(const Op& earlier, const Op& mover, uint64_t& extra_t_cost) {
+    if (is_fence(earlier) || is_fence(mover)) return false;
+    size_t k = 0;
+    const Op* other = &mover;
+    if (!kick_controls(earlier, mover, k)) {
+        if (!kick_controls(mover, earlier, k)) return false;
+        other = &earlier;
+    }
+    extra_t_cost = t_cost_of(other->kind, k, other->kind == OpKind::Phase && is_involution(*other));
+    return true;
 }
 
 bool is_involution(const Op& op) {
@@ -78,15 +133,7 @@ uint64_t kickback_t_cost_bound(OpKind other_kind, uint32_t other_controls, uint3
 }
 
 uint64_t estimated_t_cost(const Op& op) {
-    const size_t k = op.controls.size();
-    switch (op.kind) {
-    case OpKind::X:
-    case OpKind::Y: return toffoli_chain_t(k);
-    case OpKind::Phase: return is_involution(op) && k > 0 ? toffoli_chain_t(k - 1) : 0;
-    case OpKind::H:
-    case OpKind::Swap: return k == 0 ? 0 : toffoli_chain_t(k + 1);
-    default: return 0;
-    }
+    return t_cost_of(op.kind, op.controls.size(), op.kind == OpKind::Phase && is_involution(op));
 }
 
 uint64_t estimated_measured_pair_t_cost(const Op& x) {

@@ -16,6 +16,10 @@ namespace whittle::passes {
 /// mover is unchanged. False when neither is such an A/B pair (or E would be the identity).
 bool kickback_move(const ir::Op& earlier, const ir::Op& mover, ir::Op& extra);
 
+/// kickback_move without building E: true exactly when kickback_move is, and then `extra_t_cost`
+/// is estimated_t_cost of the E it would build (a walk prices most kickbacks and keeps few).
+bool kickback_cost(const ir::Op& earlier, const ir::Op& mover, uint64_t& extra_t_cost);
+
 /// The ops a kickback can cross: X, Y, H, Swap (any controls) and a Phase of pi.
 bool is_involution(const ir::Op& op);
 

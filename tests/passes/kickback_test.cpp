@@ -195,3 +195,49 @@ TEST_CASE("kickback cancellations on random circuits: op count never rises, chec
     MESSAGE(fmt::format("{} kickbacks made", kicks));
     CHECK(kicks > 50);
 }
+
+TEST_CASE("kickback_cost agrees with kickback_move and estimated_t_cost of the op it builds, on random op pairs") {
+    // Random pairs of X / Y / H / Swap / Phase ops with up to 4 controls of either polarity on 6
+    // wires, many sharing wires; the shape-only answer must equal building the op and pricing it.
+    std::mt19937_64 rng(77);
+    const OpKind kinds[] = {OpKind::X, OpKind::X, OpKind::Y, OpKind::H, OpKind::Swap, OpKind::Phase, OpKind::RZ};
+    auto random_op = [&] {
+        std::vector<uint32_t> ws = {0, 1, 2, 3, 4, 5};
+        std::shuffle(ws.begin(), ws.end(), rng);
+        const OpKind k = kinds[rng() % std::size(kinds)];
+        const size_t controls = rng() % 5;
+        ir::LitVec lits;
+        size_t next = 0;
+        Op op;
+        if (k == OpKind::Phase) {
+            for (size_t i = 0; i <= controls; ++i) lits.push_back(Lit::make(ws[next++], rng() % 3 != 0));
+            op = Op::phase(rng() % 2 ? Angle::pi_times(1) : Angle::pi_times(1, 4), lits);
+        } else if (k == OpKind::Swap) {
+            const uint32_t a = ws[next++], b = ws[next++];
+            for (size_t i = 0; i < std::min<size_t>(controls, 4); ++i) lits.push_back(Lit::make(ws[next++], rng() % 3 != 0));
+            op = Op::swap(a, b, lits);
+        } else {
+            const uint32_t t = ws[next++];
+            for (size_t i = 0; i < controls; ++i) lits.push_back(Lit::make(ws[next++], rng() % 3 != 0));
+            op = k == OpKind::X ? Op::x(t, lits) : Op::one(k, t, {}, lits);
+        }
+        std::sort(op.controls.begin(), op.controls.end());
+        return op;
+    };
+    int kicks = 0;
+    for (int i = 0; i < 20000; ++i) {
+        const Op a = random_op(), b = random_op();
+        Op extra;
+        const bool moved = passes::kickback_move(a, b, extra);
+        uint64_t cost = 12345;
+        const bool priced = passes::kickback_cost(a, b, cost);
+        INFO(fmt::format("pair {}", i));
+        REQUIRE(moved == priced);
+        if (moved) {
+            ++kicks;
+            CHECK(cost == passes::estimated_t_cost(extra));
+        }
+    }
+    MESSAGE(fmt::format("{} of 20000 random pairs admit a kickback", kicks));
+    CHECK(kicks > 500);
+}
