@@ -113,7 +113,8 @@ bool kickback_cost(const Op& earlier, const Op& mover, uint64_t& extra_t_cost) {
 }
 
 bool is_involution(const Op& op) {
-    if (op.kind == OpKind::Phase) return op.angle == ir::Angle::pi_times(1);
+    static const ir::Angle kPi = ir::Angle::pi_times(1);
+    if (op.kind == OpKind::Phase) return op.angle == kPi;
     return involution_kind(op.kind);
 }
 
