@@ -110,3 +110,25 @@ TEST_CASE("OpPrefixReleaser: nothing goes back before a whole chunk is done, or 
     releaser.consumed(1);
     CHECK(releaser.released_bytes() == before);
 }
+
+TEST_CASE("release_spare_capacity: the ops stay, and the room past them still takes new ops") {
+    std::vector<Op> ops;
+    ops.reserve(3 * OpPrefixReleaser::kChunk / sizeof(Op));
+    for (size_t i = 0; i < 1000; ++i) ops.push_back(sample_op(i));
+    const Op* data = ops.data();
+    const size_t capacity = ops.capacity();
+    // Touch the spare room as a pass that erased ops would have left it: write ops, then erase them.
+    for (size_t i = 1000; i < 20000; ++i) ops.push_back(sample_op(i));
+    ops.erase(ops.begin() + 1000, ops.end());
+    release_spare_capacity(ops);
+    CHECK(ops.data() == data);
+    CHECK(ops.capacity() == capacity);
+    REQUIRE(ops.size() == 1000);
+    for (size_t i = 0; i < 1000; ++i) REQUIRE(same(ops[i], sample_op(i)));
+    for (size_t i = 1000; i < 20000; ++i) ops.push_back(sample_op(i));
+    for (size_t i = 0; i < 20000; ++i) REQUIRE(same(ops[i], sample_op(i)));
+    release_spare_capacity(ops);  // nothing past the end is an op; a full list is a no-op
+    std::vector<Op> empty;
+    release_spare_capacity(empty);
+    CHECK(empty.empty());
+}
