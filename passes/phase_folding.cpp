@@ -9,6 +9,7 @@
 #include <boost/container/small_vector.hpp>
 
 #include "ir/error.h"
+#include "ir/op_prefix_release.h"
 #include "passes/sequence_table.h"
 
 namespace whittle::passes {
@@ -642,7 +643,13 @@ private:
         size_t next = 0;  // plan terms are in op order
         int64_t removed = 0;
         const uint32_t n = uint32_t(c_.ops.size());
+        // Building a new list: the input's pages are handed back behind the reading position.
+        ir::OpPrefixReleaser release(c_.ops);
         for (uint32_t i = 0; i < n; ++i) {
+            if (expanded && i > 0) {
+                c_.ops[i - 1] = Op();  // moved out, or a merged-away op that may still own literals
+                release.consumed(i);
+            }
             if (next >= plan.terms.size() || plan.terms[next].op != i) {
                 put(std::move(c_.ops[i]));
                 continue;
@@ -651,7 +658,7 @@ private:
                 rewrite_in_place(plan, next++, c_.ops[i], global, removed, put);
                 continue;
             }
-            const Op op = c_.ops[i];  // a copy: in place, position i may be overwritten below
+            const Op op = std::move(c_.ops[i]);  // taken out: in place, position i may be overwritten below
             for (; next < plan.terms.size() && plan.terms[next].op == i; ++next) {
                 const Term& t = plan.terms[next];
                 const Group& g = plan.groups[plan.group_of[next]];
