@@ -387,6 +387,7 @@ private:
     }
     size_t mark_of(uint64_t h) const { return size_t(h >> mark_shift_); }
     bool may_be_shared(uint64_t h) const {
+        if (shared_.empty()) return true;  // no census: every key is interned
         const size_t bit = mark_of(h);
         return (shared_[bit >> 6] >> (bit & 63)) & 1;
     }
@@ -414,10 +415,16 @@ private:
         pending_words_.clear();
     }
 
-    /// Reads the circuit twice: the census (see count_key), then the reading that makes the terms.
-    /// Both see the same wire values (the census made the monomials and variables the second one
-    /// finds again).
+    /// Reads the circuit twice on a large circuit: the census (see count_key), then the reading
+    /// that makes the terms. Both see the same wire values (the census made the monomials and
+    /// variables the second one finds again).
     void collect() {
+        if (c_.ops.size() < s_.census_from_ops) {
+            real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
+            simulate();
+            intern_pending();
+            return;
+        }
         // Eight mark bits per op: a lone key shares its mark with another key about 1 time in 16
         // (there are at most about half as many keys as ops).
         size_t bits = 64;
