@@ -2,6 +2,7 @@
 #include "passes/phase_folding.h"
 
 #include <algorithm>
+#include <array>
 #include <bit>
 #include <limits>
 #include <span>
@@ -374,22 +375,33 @@ private:
         return has_constant(f) ? key.subspan(1) : key;
     }
 
-    /// The census: a first reading of the circuit that only marks each term key's hash in `seen_`,
-    /// and in `shared_` when it was seen before. A key whose mark is not in `shared_` belongs to
-    /// one term only (equal keys have equal hashes), so the real reading neither interns nor
-    /// stores it: at 10^7 ops most keys are lone, and interning them all was most of the engine's
-    /// memory. Two keys whose hashes share a mark only cost an interning; the result is exact.
+    /// The census: a first reading of the circuit that only marks each term key's hash as seen,
+    /// and as shared when it was seen before. A key whose mark is not shared belongs to one term
+    /// only (equal keys have equal hashes), so the real reading neither interns nor stores it: at
+    /// 10^7 ops most keys are lone, and interning them all was most of the engine's memory. Two
+    /// keys whose hashes share a mark only cost an interning; the result is exact. Marks are set
+    /// in batches with their words prefetched (the order of marking does not matter).
     void count_key(std::span<const uint32_t> key) {
-        const size_t bit = mark_of(SequenceTable::hash(key));
-        const uint64_t m = uint64_t(1) << (bit & 63);
-        if (seen_[bit >> 6] & m) shared_[bit >> 6] |= m;
-        seen_[bit >> 6] |= m;
+        const uint64_t h = SequenceTable::hash(key);
+        __builtin_prefetch(marks_.data() + 2 * (mark_of(h) >> 6), 1);
+        census_batch_[census_batched_++] = h;
+        if (census_batched_ == kKeyBatch) mark_batch();
+    }
+    void mark_batch() {
+        for (size_t k = 0; k < census_batched_; ++k) {
+            const size_t bit = mark_of(census_batch_[k]);
+            uint64_t* words = marks_.data() + 2 * (bit >> 6);  // seen, then shared
+            const uint64_t m = uint64_t(1) << (bit & 63);
+            if (words[0] & m) words[1] |= m;
+            words[0] |= m;
+        }
+        census_batched_ = 0;
     }
     size_t mark_of(uint64_t h) const { return size_t(h >> mark_shift_); }
     bool may_be_shared(uint64_t h) const {
-        if (shared_.empty()) return true;  // no census: every key is interned
+        if (marks_.empty()) return true;  // no census: every key is interned
         const size_t bit = mark_of(h);
-        return (shared_[bit >> 6] >> (bit & 63)) & 1;
+        return (marks_[2 * (bit >> 6) + 1] >> (bit & 63)) & 1;
     }
 
     /// Term keys wait in a small batch before they are interned: each key's index slot is prefetched
@@ -430,16 +442,15 @@ private:
         size_t bits = 64;
         while (bits < 8 * c_.ops.size()) bits *= 2;
         mark_shift_ = unsigned(64 - std::countr_zero(bits));
-        seen_.assign(bits / 64, 0);
-        shared_.assign(bits / 64, 0);
+        marks_.assign(2 * (bits / 64), 0);
         census_ = true;
         simulate();
+        mark_batch();
         census_ = false;
-        std::vector<uint64_t>().swap(seen_);
         real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
         simulate();
         intern_pending();
-        std::vector<uint64_t>().swap(shared_);
+        std::vector<uint64_t>().swap(marks_);
     }
 
     void simulate() {
@@ -742,9 +753,12 @@ private:
     std::vector<uint32_t> pending_words_;
     uint32_t mark_ = 0;
     bool census_ = false;          ///< collect()'s first reading: keys are only counted
-    std::vector<uint64_t> seen_;   ///< the census's mark bits: some key has this mark
-    std::vector<uint64_t> shared_; ///< some two keys have this mark (a key without it is lone)
+    /// The census's marks, per 64 marks two words: some key has the mark (seen), some two keys
+    /// have it (shared; a key whose mark is not shared is lone). Empty when no census was taken.
+    std::vector<uint64_t> marks_;
     unsigned mark_shift_ = 64;     ///< a key's mark is the top bits of its hash
+    std::array<uint64_t, kKeyBatch> census_batch_{};  ///< hashes waiting to be marked
+    size_t census_batched_ = 0;
 };
 
 }  // namespace
