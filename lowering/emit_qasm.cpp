@@ -33,6 +33,9 @@ public:
     }
 
     std::string run() {
+        // Room for the usual line lengths (about 16 bytes per gate): the body of a 10^7-gate
+        // circuit then never grows by copying, which would hold it twice. Pages not written cost nothing.
+        body_.reserve(24 * c_.ops.size() + 4096);
         for (const Op& op : c_.ops) emit(op);
         std::string out = d_ == Dialect::V2 ? "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
                                             : "OPENQASM 3.0;\ninclude \"stdgates.inc\";\n";
@@ -54,7 +57,8 @@ public:
             if (d_ == Dialect::V3) out += fmt::format("gphase({});\n", text(c_.global_phase));
             else out += fmt::format("// global phase {} (OpenQASM 2.0 cannot write it)\n", text(c_.global_phase));
         }
-        return out + body_;
+        body_.insert(0, out);  // in place (no second copy of the body) while the reserved room lasts
+        return std::move(body_);
     }
 
 private:

@@ -82,8 +82,7 @@ PassResult fuse_1q(ir::Circuit& c, const PassOptions& opts) {
     const lowering::Target target = lowering::parse_target(opts.target);
     const size_t n = c.ops.size();
     std::vector<std::vector<size_t>> run(c.num_qubits());
-    std::vector<std::vector<Op>> insert(n);
-    std::vector<uint8_t> dropped(n, 0);
+    OpReplacements edits(n);
     ir::Angle phase = c.global_phase;
     auto flush = [&](uint32_t w) {
         std::vector<size_t>& idx = run[w];
@@ -113,12 +112,12 @@ PassResult fuse_1q(ir::Circuit& c, const PassOptions& opts) {
             }
         }
         if (ok && cost(fresh) < cost(old)) {
-            for (size_t i : idx) dropped[i] = 1;
+            for (size_t i : idx) edits.drop(i);
             for (Op& op : fresh) op.loc = c.ops[idx.back()].loc;
-            insert[idx.back()] = std::move(fresh);
-            phase += gp;
             r.count("runs-fused");
-            r.count("gates-removed", int64_t(old.size()) - int64_t(insert[idx.back()].size()));
+            r.count("gates-removed", int64_t(old.size()) - int64_t(fresh.size()));
+            edits.insert_after(idx.back(), std::move(fresh));
+            phase += gp;
         }
         idx.clear();
     };
@@ -135,7 +134,7 @@ PassResult fuse_1q(ir::Circuit& c, const PassOptions& opts) {
     }
     for (uint32_t w = 0; w < c.num_qubits(); ++w) flush(w);
     if (r.stats.empty()) return r;
-    apply_replacements(c, dropped, insert);
+    edits.apply(c);
     c.global_phase = phase;
     r.changed = true;
     return r;

@@ -7,6 +7,8 @@
 
 #include <fmt/format.h>
 
+#include "ir/error.h"
+#include "ir/op_prefix_release.h"
 #include "lowering/ancilla_plan.h"
 #include "lowering/op_sink.h"
 #include "lowering/toffoli_forms.h"
@@ -32,20 +34,23 @@ bool disturbs(const Op& op, uint32_t w) {
 
 enum class Form : uint8_t { Exact, Relative, TempAnd, Erase };
 
+constexpr uint32_t kNoPartner = 0xffffffffu;
+
 }  // namespace
 
 PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
     PassResult r;
     if (std::none_of(c.ops.begin(), c.ops.end(), [](const Op& op) { return is_toffoli(op) || is_ccz(op); })) return r;
     const size_t n_ops = c.ops.size();
+    WHITTLE_ASSERT(n_ops < kNoPartner && "lower-toffoli: op indices are 32-bit");
     // Per-wire sorted indices of disturbing ops, for "nothing disturbs w strictly between i and j".
-    std::vector<std::vector<size_t>> disturbed(c.num_qubits());
+    std::vector<std::vector<uint32_t>> disturbed(c.num_qubits());
     std::vector<uint32_t> wires;
     for (size_t i = 0; i < n_ops; ++i) {
         wires.clear();
         c.ops[i].wires(wires);
         for (uint32_t w : wires)
-            if (disturbs(c.ops[i], w)) disturbed[w].push_back(i);
+            if (disturbs(c.ops[i], w)) disturbed[w].push_back(uint32_t(i));
     }
     auto quiet_between = [&](uint32_t w, size_t i, size_t j) {
         const auto& v = disturbed[w];
@@ -54,8 +59,8 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
     };
     // Match halves: the latest open compute with the same (pair, target, controls) key.
     using Key = std::tuple<uint32_t, uint32_t, uint32_t, uint32_t>;
-    std::map<Key, std::vector<size_t>> open;
-    std::vector<size_t> partner(n_ops, SIZE_MAX);
+    std::map<Key, std::vector<uint32_t>> open;
+    std::vector<uint32_t> partner(n_ops, kNoPartner);
     auto key_of = [](const Op& op) {
         uint32_t a = op.controls[0].bits(), b = op.controls[1].bits();
         if (a > b) std::swap(a, b);
@@ -64,7 +69,7 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
     for (size_t i = 0; i < n_ops; ++i) {
         const Op& op = c.ops[i];
         if (!is_toffoli(op) || op.pair == 0 || op.is_conditioned()) continue;
-        if (op.half == ir::PairHalf::Compute) open[key_of(op)].push_back(i);
+        if (op.half == ir::PairHalf::Compute) open[key_of(op)].push_back(uint32_t(i));
         if (op.half == ir::PairHalf::Uncompute) {
             auto it = open.find(key_of(op));
             if (it == open.end() || it->second.empty()) continue;
@@ -73,8 +78,8 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
             bool ok = quiet_between(op.target, j0, i);
             for (Lit l : op.controls) ok = ok && quiet_between(l.wire(), j0, i);
             if (ok) {
-                partner[i] = j0;
-                partner[j0] = i;
+                partner[i] = uint32_t(j0);
+                partner[j0] = uint32_t(i);
             } else {
                 r.count("pairs-rejected");
             }
@@ -84,7 +89,7 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
     {
         lowering::CleanWireTracker tracker(c);
         for (size_t i = 0; i < n_ops; ++i) {
-            if (partner[i] != SIZE_MAX && partner[i] > i) {
+            if (partner[i] != kNoPartner && partner[i] > i) {
                 const bool measured = opts.allow_measurement && tracker.is_zero(c.ops[i].target);
                 form[i] = measured ? Form::TempAnd : Form::Relative;
                 form[partner[i]] = measured ? Form::Erase : Form::Relative;
@@ -92,6 +97,10 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
             tracker.step(i);
         }
     }
+    // The matching tables are done with: freed before the output list grows.
+    std::vector<std::vector<uint32_t>>().swap(disturbed);
+    std::vector<uint32_t>().swap(partner);
+    open.clear();
     int32_t creg = -1, cbit = -1;
     if (std::find(form.begin(), form.end(), Form::Erase) != form.end()) {
         std::string name = "erase";
@@ -107,12 +116,15 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
     out.reserve(n_ops + 20 * expanded);
     ir::Angle phase = c.global_phase;
     lowering::OpSink s(out, phase);
-    for (size_t i = 0; i < n_ops; ++i) {
-        const Op& op = c.ops[i];
-        if (!is_toffoli(op) && !is_ccz(op)) {
-            out.push_back(op);
+    // The input's ops are moved out as they are read and its pages handed back behind the reading
+    // position, so the input and the larger output are not held whole at once.
+    ir::OpPrefixReleaser release(c.ops);
+    for (size_t i = 0; i < n_ops; release.consumed(++i)) {
+        if (!is_toffoli(c.ops[i]) && !is_ccz(c.ops[i])) {
+            out.push_back(std::move(c.ops[i]));
             continue;
         }
+        const Op op = std::move(c.ops[i]);
         s.inherit(op);
         for (Lit l : op.controls)
             if (!l.positive()) s.x(l.wire());

@@ -2,12 +2,15 @@
 #include "passes/phase_folding.h"
 
 #include <algorithm>
+#include <array>
+#include <bit>
 #include <limits>
 #include <span>
 
 #include <boost/container/small_vector.hpp>
 
 #include "ir/error.h"
+#include "ir/op_prefix_release.h"
 #include "passes/sequence_table.h"
 
 namespace whittle::passes {
@@ -20,6 +23,8 @@ using ir::OpKind;
 namespace {
 
 constexpr uint32_t kNone = 0xffffffffu;
+/// Term::key of a term whose key no other term has (the census proved it): alone in every plan.
+constexpr uint32_t kLoneKey = 0xffffffffu;
 
 /// A Boolean polynomial as the sorted ids of its monomials in a SequenceTable. Monomial id 0 is the
 /// empty monomial (the constant 1), so a polynomial with a constant starts with 0. Wire values are
@@ -94,13 +99,15 @@ struct Plan {
     std::vector<Group> groups;
     bool merges = false;
 
-    /// Groups the terms by key in order of first occurrence; `keys` is the number of interned keys.
+    /// Groups the terms by key in order of first occurrence; `keys` is the number of interned keys
+    /// (a term with kLoneKey is a group of its own).
     void build(uint32_t keys) {
         std::vector<uint32_t> group_of_key(keys, kNone);
         group_of.assign(terms.size(), 0);
         groups.reserve(terms.size());
         for (size_t i = 0; i < terms.size(); ++i) {
-            uint32_t& gk = group_of_key[terms[i].key];
+            uint32_t lone = kNone;
+            uint32_t& gk = terms[i].key == kLoneKey ? lone : group_of_key[terms[i].key];
             if (gk == kNone) {
                 gk = uint32_t(groups.size());
                 groups.push_back(Group{uint32_t(i), 0, Angle()});
@@ -207,6 +214,7 @@ private:
     /// The monomial of a new variable v. One-variable monomials are not in the table's index: each
     /// is made once, and a product that comes out as one variable finds it in var_monomial_.
     uint32_t var_monomial(uint32_t v) {
+        if (v < var_monomial_.size()) return var_monomial_[v];  // made by the census, the same variable
         WHITTLE_ASSERT(v == var_monomial_.size() && "variables are made in order");
         const uint32_t one[1] = {v};
         var_monomial_.push_back(monomials_.add_unindexed(one));
@@ -336,24 +344,70 @@ private:
         t.subset = uint8_t(subset);
         const bool c = has_constant(f);
         t.constant = c != negate;
-        const std::span<const uint32_t> key(f.data(), f.size());
-        queue_key(where, c ? key.subspan(1) : key);
+        const std::span<const uint32_t> key = key_of(f);
+        const uint64_t h = SequenceTable::hash(key);
+        if (may_be_shared(h)) queue_key(where, key, h);
+        else t.key = kLoneKey;
         t.alpha = alpha;
         t.extra = extra;
         t.literals = uint16_t(literals);
         return t;
     }
 
-    void add_term(uint32_t op, const Poly& f, bool negate, Angle alpha, Extra extra, uint32_t literals) {
-        real_.push_back(make_term(uint32_t(real_.size()), op, 0, f, negate, alpha, extra, literals));
+    /// The term of op `op` (see make_term); `expandable` when its parity terms follow (expand).
+    void add_term(uint32_t op, const Poly& f, bool negate, Angle alpha, Extra extra, uint32_t literals,
+                  bool expandable) {
+        if (census_) {
+            count_key(key_of(f));
+            return;
+        }
+        const Term t = make_term(uint32_t(real_.size()), op, 0, f, negate, alpha, extra, literals);
+        // A lone key that cannot expand is a group of one in every plan, which emits its op as it
+        // is: such terms (most of a large circuit's) are not stored.
+        if (t.key == kLoneKey && !expandable) return;
+        real_.push_back(t);
         stored();
+    }
+
+    /// A term's key: its polynomial without the constant monomial (id 0, first when present).
+    static std::span<const uint32_t> key_of(const Poly& f) {
+        const std::span<const uint32_t> key(f.data(), f.size());
+        return has_constant(f) ? key.subspan(1) : key;
+    }
+
+    /// The census: a first reading of the circuit that only marks each term key's hash as seen,
+    /// and as shared when it was seen before. A key whose mark is not shared belongs to one term
+    /// only (equal keys have equal hashes), so the real reading neither interns nor stores it: at
+    /// 10^7 ops most keys are lone, and interning them all was most of the engine's memory. Two
+    /// keys whose hashes share a mark only cost an interning; the result is exact. Marks are set
+    /// in batches with their words prefetched (the order of marking does not matter).
+    void count_key(std::span<const uint32_t> key) {
+        const uint64_t h = SequenceTable::hash(key);
+        __builtin_prefetch(marks_.data() + 2 * (mark_of(h) >> 6), 1);
+        census_batch_[census_batched_++] = h;
+        if (census_batched_ == kKeyBatch) mark_batch();
+    }
+    void mark_batch() {
+        for (size_t k = 0; k < census_batched_; ++k) {
+            const size_t bit = mark_of(census_batch_[k]);
+            uint64_t* words = marks_.data() + 2 * (bit >> 6);  // seen, then shared
+            const uint64_t m = uint64_t(1) << (bit & 63);
+            if (words[0] & m) words[1] |= m;
+            words[0] |= m;
+        }
+        census_batched_ = 0;
+    }
+    size_t mark_of(uint64_t h) const { return size_t(h >> mark_shift_); }
+    bool may_be_shared(uint64_t h) const {
+        if (marks_.empty()) return true;  // no census: every key is interned
+        const size_t bit = mark_of(h);
+        return (marks_[2 * (bit >> 6) + 1] >> (bit & 63)) & 1;
     }
 
     /// Term keys wait in a small batch before they are interned: each key's index slot is prefetched
     /// when it is queued, so the cache misses of a batch (about one per key once the table outgrows
     /// the caches) overlap instead of following one another.
-    void queue_key(uint32_t where, std::span<const uint32_t> key) {
-        const uint64_t h = SequenceTable::hash(key);
+    void queue_key(uint32_t where, std::span<const uint32_t> key, uint64_t h) {
         polys_.prefetch(h);
         pending_.push_back(PendingKey{where, uint32_t(pending_words_.size()), uint32_t(key.size()), h});
         pending_words_.insert(pending_words_.end(), key.begin(), key.end());
@@ -373,14 +427,38 @@ private:
         pending_words_.clear();
     }
 
+    /// Reads the circuit twice on a large circuit: the census (see count_key), then the reading
+    /// that makes the terms. Both see the same wire values (the census made the monomials and
+    /// variables the second one finds again).
     void collect() {
+        if (c_.ops.size() < s_.census_from_ops) {
+            real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
+            simulate();
+            intern_pending();
+            return;
+        }
+        // Eight mark bits per op: a lone key shares its mark with another key about 1 time in 16
+        // (there are at most about half as many keys as ops).
+        size_t bits = 64;
+        while (bits < 8 * c_.ops.size()) bits *= 2;
+        mark_shift_ = unsigned(64 - std::countr_zero(bits));
+        marks_.assign(2 * (bits / 64), 0);
+        census_ = true;
+        simulate();
+        mark_batch();
+        census_ = false;
+        real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
+        simulate();
+        intern_pending();
+        std::vector<uint64_t>().swap(marks_);
+    }
+
+    void simulate() {
         const uint32_t n = c_.num_qubits();
-        vals_.resize(n);
+        vals_.assign(n, Poly());
         for (uint32_t w = 0; w < n; ++w) vals_[w] = Poly{var_monomial(w)};
         next_var_ = n;
-        real_.reserve(c_.ops.size());  // an upper bound: pages past the terms are never touched
         for (uint32_t i = 0; i < c_.ops.size(); ++i) step(i, c_.ops[i]);
-        intern_pending();
     }
 
     void step(uint32_t i, const Op& op) {
@@ -429,30 +507,30 @@ private:
             if (k == 1) {  // the literal itself, read in place
                 const Lit l = op.controls[0];
                 if (literal_size(l) > s_.max_terms) return;
-                add_term(i, vals_[l.wire()], !l.positive(), op.angle, kNoExtra, 1);
+                add_term(i, vals_[l.wire()], !l.positive(), op.angle, kNoExtra, 1, false);
                 return;
             }
             if (!product(op, prod_)) return;  // too big to compare: not a term
-            add_term(i, prod_, false, op.angle, kNoExtra, k);
             // Expand only when the parity terms stay Clifford+T (angle / 2^{k-1} a multiple of pi/4:
             // CS, CZ, CCZ): finer parities would need rotation synthesis where the product lowers
             // exactly through Toffolis.
-            if (s_.expand_products && k >= 2 && k <= s_.max_expand_literals &&
-                op.angle.divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(4))
-                expand(i, op);
+            const bool expandable = s_.expand_products && k >= 2 && k <= s_.max_expand_literals &&
+                                    op.angle.divided_by(int64_t(1) << (k - 1)).is_multiple_of_pi_over(4);
+            add_term(i, prod_, false, op.angle, kNoExtra, k, expandable);
+            if (expandable) expand(i, op);
             return;
         }
         case OpKind::Parity: {
             if (op.pair != 0) return;
             Poly sum;
             for (Lit l : op.controls) sum = poly_xor(sum, vals_[l.wire()]);
-            add_term(i, sum, false, op.angle, kNoExtra, 1);
+            add_term(i, sum, false, op.angle, kNoExtra, 1, false);
             return;
         }
         case OpKind::RZ:
             if (op.pair != 0 || !op.controls.empty()) return;
             // RZ(t) = e^{-it/2} Phase(t) with the stored angle t.
-            add_term(i, vals_[op.target], false, op.angle, kMinusHalf, 1);
+            add_term(i, vals_[op.target], false, op.angle, kMinusHalf, 1, false);
             return;
         case OpKind::H:
         case OpKind::Y:
@@ -479,7 +557,7 @@ private:
     void expand(uint32_t i, const Op& op) {
         const uint32_t k = uint32_t(op.controls.size());
         const Angle base = op.angle.divided_by(int64_t(1) << (k - 1));
-        real_.back().sub_first = uint32_t(subterms_.size());
+        if (!census_) real_.back().sub_first = uint32_t(subterms_.size());
         for (uint32_t mask = 1; mask < (1u << k); ++mask) {
             Poly sum;
             int size = 0, negs = 0;
@@ -489,6 +567,10 @@ private:
                     ++size;
                     if (!op.controls[b].positive()) ++negs;
                 }
+            if (census_) {
+                count_key(key_of(sum));
+                continue;
+            }
             const Angle phi = size % 2 == 1 ? base : -base;
             // e^{i phi (1 ^ P)} = e^{i phi} e^{-i phi P}: angle -phi, constant part phi (exact, so
             // -(-phi) gives phi back)
@@ -511,11 +593,12 @@ private:
         std::vector<uint32_t> sources(polys_.size(), 0);
         for (const Term& t : real_) {
             if (t.sub_first == kNone) {
-                ++sources[t.key];
+                if (t.key != kLoneKey) ++sources[t.key];
                 continue;
             }
             const std::span<const Term> subs = subterms_of(t);
             for (size_t j = 0; j < subs.size(); ++j) {  // each distinct key of the expansion once
+                if (subs[j].key == kLoneKey) continue;  // its only source is here
                 bool seen = false;
                 for (size_t e = 0; e < j && !seen; ++e) seen = subs[e].key == subs[j].key;
                 if (!seen) ++sources[subs[j].key];
@@ -525,7 +608,7 @@ private:
         p.own.reserve(real_.size());
         for (const Term& t : real_) {
             bool useful = false;
-            for (const Term& s : subterms_of(t)) useful = useful || sources[s.key] >= 2;
+            for (const Term& s : subterms_of(t)) useful = useful || (s.key != kLoneKey && sources[s.key] >= 2);
             if (!useful) {
                 p.own.push_back(t);
                 continue;
@@ -578,7 +661,13 @@ private:
         size_t next = 0;  // plan terms are in op order
         int64_t removed = 0;
         const uint32_t n = uint32_t(c_.ops.size());
+        // Building a new list: the input's pages are handed back behind the reading position.
+        ir::OpPrefixReleaser release(c_.ops);
         for (uint32_t i = 0; i < n; ++i) {
+            if (expanded && i > 0) {
+                c_.ops[i - 1] = Op();  // moved out, or a merged-away op that may still own literals
+                release.consumed(i);
+            }
             if (next >= plan.terms.size() || plan.terms[next].op != i) {
                 put(std::move(c_.ops[i]));
                 continue;
@@ -587,7 +676,7 @@ private:
                 rewrite_in_place(plan, next++, c_.ops[i], global, removed, put);
                 continue;
             }
-            const Op op = c_.ops[i];  // a copy: in place, position i may be overwritten below
+            const Op op = std::move(c_.ops[i]);  // taken out: in place, position i may be overwritten below
             for (; next < plan.terms.size() && plan.terms[next].op == i; ++next) {
                 const Term& t = plan.terms[next];
                 const Group& g = plan.groups[plan.group_of[next]];
@@ -663,6 +752,13 @@ private:
     std::vector<PendingKey> pending_;
     std::vector<uint32_t> pending_words_;
     uint32_t mark_ = 0;
+    bool census_ = false;          ///< collect()'s first reading: keys are only counted
+    /// The census's marks, per 64 marks two words: some key has the mark (seen), some two keys
+    /// have it (shared; a key whose mark is not shared is lone). Empty when no census was taken.
+    std::vector<uint64_t> marks_;
+    unsigned mark_shift_ = 64;     ///< a key's mark is the top bits of its hash
+    std::array<uint64_t, kKeyBatch> census_batch_{};  ///< hashes waiting to be marked
+    size_t census_batched_ = 0;
 };
 
 }  // namespace

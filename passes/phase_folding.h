@@ -19,6 +19,11 @@ struct FoldSettings {
     /// Rounds at most: an expansion can make parities that expose further merges and expansions.
     /// A round stops the loop when it changes nothing or when the next one provably would not.
     size_t rounds = 1;
+    /// From this many ops on, each round first takes a census of the term keys (one more reading of
+    /// the circuit, about a third more time) so that the keys only one term has are neither
+    /// interned nor stored: at 10^7 ops those tables were hundreds of MB. Below, every key is
+    /// interned. Either way the result is the same.
+    size_t census_from_ops = size_t(1) << 22;
 };
 
 /// Phase folding (Amy, Maslov, Mosca 2014, arXiv:1303.2042; on the lowered circuit the rotation

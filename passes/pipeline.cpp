@@ -6,9 +6,14 @@
 
 #include <chrono>
 
+#if defined(__GLIBC__)
+#include <malloc.h>
+#endif
+
 #include <fmt/format.h>
 
 #include "ir/error.h"
+#include "ir/op_prefix_release.h"
 #include "ir/resources.h"
 #include "passes/registry.h"
 
@@ -21,6 +26,9 @@ double thread_cpu_seconds() {
     clock_gettime(CLOCK_THREAD_CPUTIME_ID, &ts);
     return double(ts.tv_sec) + double(ts.tv_nsec) * 1e-9;
 }
+
+/// From this many ops (64 MiB of op list) on, the runner hands unused memory back after each pass.
+constexpr size_t kLargeOpList = size_t(1) << 20;
 
 /// The process's peak resident set so far in KiB (Linux reports ru_maxrss in KiB).
 long peak_rss_kib() {
@@ -121,6 +129,15 @@ std::vector<PassRecord> run_passes(ir::Circuit& c, const std::vector<std::string
         auto t0 = std::chrono::steady_clock::now();
         const double cpu0 = thread_cpu_seconds();
         rec.result = info->run(c, opts);
+        if (c.ops.capacity() >= kLargeOpList) {
+            // What the pass left resident but unused goes back before the next pass builds its
+            // tables: the op list's pages past its end (a pass that erased or over-reserved), and
+            // the free pages inside malloc's heap (a pass's many small per-wire vectors, freed).
+            ir::release_spare_capacity(c.ops);
+#if defined(__GLIBC__)
+            malloc_trim(0);
+#endif
+        }
         rec.cpu_seconds = thread_cpu_seconds() - cpu0;
         rec.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
         rec.peak_rss_kib = peak_rss_kib();

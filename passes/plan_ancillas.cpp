@@ -8,10 +8,15 @@
 
 namespace whittle::passes {
 
+/// Notes listed per op at most (then one line with the rest's count): a note is about 100 bytes
+/// kept to the end of the run, and a 10^7-gate input has 10^6 Toffolis.
+constexpr size_t kMaxNotes = 200;
+
 PassResult plan_ancillas(ir::Circuit& c, const PassOptions&) {
     PassResult r;
     lowering::CleanWireTracker tracker(c);
     std::vector<uint32_t> wires;
+    size_t multi_ops = 0;
     for (size_t i = 0; i < c.ops.size(); ++i) {
         const ir::Op& op = c.ops[i];
         const bool multi = op.controls.size() >= 2 && op.kind != ir::OpKind::Parity && op.kind != ir::OpKind::Barrier &&
@@ -27,11 +32,14 @@ PassResult plan_ancillas(ir::Circuit& c, const PassOptions&) {
             r.count("with-clean-wires", clean > 0);
             r.count("with-borrowable-wires", borrowable > 0);
             r.count("with-no-free-wire", borrowable == 0);
-            r.notes.push_back(fmt::format("op {} {}: {} clean wires at |0>, {} borrowable", i,
-                                          lowering::describe_op(c, op), clean, borrowable));
+            if (r.notes.size() < kMaxNotes)
+                r.notes.push_back(fmt::format("op {} {}: {} clean wires at |0>, {} borrowable", i,
+                                              lowering::describe_op(c, op), clean, borrowable));
+            ++multi_ops;
         }
         tracker.step(i);
     }
+    if (multi_ops > kMaxNotes) r.notes.push_back(fmt::format("... and {} more ops", multi_ops - kMaxNotes));
     return r;
 }
 

@@ -32,8 +32,7 @@ PassResult resynth_2q(ir::Circuit& c, const PassOptions& opts) {
     std::vector<Block> blocks;
     std::vector<int64_t> open(c.num_qubits(), -1);
     std::vector<std::vector<size_t>> pending(c.num_qubits());
-    std::vector<std::vector<Op>> insert(n);
-    std::vector<uint8_t> dropped(n, 0);
+    OpReplacements edits(n);
     ir::Angle phase = c.global_phase;
     auto close = [&](int64_t id) {
         if (id < 0) return;
@@ -49,11 +48,11 @@ PassResult resynth_2q(ir::Circuit& c, const PassOptions& opts) {
         const bool better = size_t(syn.entanglers) < bl.two_qubit ||
                             (size_t(syn.entanglers) == bl.two_qubit && syn.ops.size() < old.size());
         if (!better || syn.error > 1e-9) return;
-        for (size_t i : bl.ops) dropped[i] = 1;
+        for (size_t i : bl.ops) edits.drop(i);
         for (Op& op : syn.ops) op.loc = c.ops[bl.ops.back()].loc;
         r.count("blocks-resynthesized");
         r.count("two-qubit-gates-removed", int64_t(bl.two_qubit) - syn.entanglers);
-        insert[bl.ops.back()] = std::move(syn.ops);
+        edits.insert_after(bl.ops.back(), std::move(syn.ops));
         phase += syn.phase;
     };
     std::vector<uint32_t> wires;
@@ -94,7 +93,7 @@ PassResult resynth_2q(ir::Circuit& c, const PassOptions& opts) {
     }
     for (uint32_t w = 0; w < c.num_qubits(); ++w) close(open[w]);
     if (r.stats.empty()) return r;
-    apply_replacements(c, dropped, insert);
+    edits.apply(c);
     c.global_phase = phase;
     r.changed = true;
     return r;

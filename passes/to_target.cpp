@@ -2,6 +2,7 @@
 #include "passes/to_target.h"
 
 #include "ir/error.h"
+#include "ir/op_prefix_release.h"
 #include "lowering/target_lowering.h"
 #include "lowering/targets.h"
 
@@ -20,11 +21,15 @@ PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
     lowering::OpSink s(out, phase);
     lowering::RotationBudget budget;
     budget.epsilon = opts.epsilon;
-    for (const ir::Op& op : c.ops) {
-        if (lowering::in_target(op, t)) {
-            out.push_back(op);
+    // The input's ops are moved out as they are read and its pages handed back behind the reading
+    // position, so the input and the output are not held whole at once.
+    ir::OpPrefixReleaser release(c.ops);
+    for (size_t i = 0; i < c.ops.size(); release.consumed(++i)) {
+        if (lowering::in_target(c.ops[i], t)) {
+            out.push_back(std::move(c.ops[i]));
             continue;
         }
+        const ir::Op op = std::move(c.ops[i]);
         r.count("ops-rewritten");
         switch (t) {
         case lowering::Target::CliffordT: lowering::to_clifford_t(op, s, c, budget); break;

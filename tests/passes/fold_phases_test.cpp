@@ -192,6 +192,36 @@ TEST_CASE("the engine stops its rounds early only when another round would chang
     CHECK(several_rounds > 0);
 }
 
+TEST_CASE("the census of term keys (taken on large circuits) changes nothing: the same ops with and without it") {
+    // Two readings of the engine: every key interned, or lone keys (proved by the census) left out.
+    // Small random circuits give small mark bitmaps, so unequal keys that share a mark occur too.
+    std::mt19937_64 rng(55);
+    RandomSpec spec;
+    spec.min_ops = 20;
+    spec.max_ops = 200;
+    int merged = 0;
+    for (int i = 0; i < 300; ++i) {
+        Circuit c = random_circuit(rng, spec);
+        passes::normalize(c, {});
+        for (const bool expand : {false, true}) {
+            passes::FoldSettings with, without;
+            with.expand_products = without.expand_products = expand;
+            with.rounds = without.rounds = expand ? 4 : 1;
+            with.census_from_ops = 0;
+            without.census_from_ops = SIZE_MAX;
+            Circuit a = c, b = c;
+            passes::PassResult ra, rb;
+            const bool changed = passes::fold_phase_terms(a, with, ra);
+            CHECK(changed == passes::fold_phase_terms(b, without, rb));
+            CHECK(print_wq(a) == print_wq(b));
+            CHECK(a.global_phase.identical(b.global_phase));
+            CHECK(ra.stats == rb.stats);
+            merged += changed;
+        }
+    }
+    CHECK(merged > 50);
+}
+
 TEST_CASE("two phases on one 70-literal product merge") {
     // e^{ia P} e^{ib P} = e^{i(a+b) P} for one Boolean product P (phase polynomial identity; Amy,
     // Maslov, Mosca 2014, arXiv:1303.2042). Too wide for a dense check: the merged angle is compared.

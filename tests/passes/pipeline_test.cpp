@@ -1,6 +1,8 @@
 // The -O pipelines and the runner: every listed pass exists, hooks fire only on change, records add up.
 #include <doctest/doctest.h>
 
+#include <algorithm>
+
 #include "ir/error.h"
 #include "passes/pipeline.h"
 #include "passes/registry.h"
@@ -52,6 +54,20 @@ TEST_CASE("run_passes: records per pass, dump hook only after a pass that change
     CHECK(records[1].ops_before == 3);
     CHECK(records[1].ops_after == 1);
     CHECK(dumped == std::vector<std::string>{"cancel"});
+}
+
+TEST_CASE("plan-ancillas notes the first 200 multi-controlled ops, then how many more there were") {
+    Circuit c = wires(4);
+    for (int i = 0; i < 250; ++i) c.ops.push_back(Op::x(3, {Lit::pos(0), Lit::pos(1)}));
+    auto records = passes::run_passes(c, {"plan-ancillas"}, {}, {});
+    REQUIRE(records.size() == 1);
+    const passes::PassResult& r = records[0].result;
+    CHECK(std::find(r.stats.begin(), r.stats.end(), std::pair<std::string, int64_t>("multi-controlled-ops", 250)) !=
+          r.stats.end());
+    REQUIRE(r.notes.size() == 201);
+    CHECK(r.notes[0].rfind("op 0 ", 0) == 0);
+    CHECK(r.notes[199].rfind("op 199 ", 0) == 0);
+    CHECK(r.notes[200] == "... and 50 more ops");
 }
 
 TEST_CASE("-O1..-O3 pipelines keep random circuits equivalent (state vector, global phase included)") {
