@@ -33,10 +33,13 @@ struct WireEntry {
 }  // namespace
 
 /// The per-wire lists, all in one arena: wire w's entries form a ring of a power-of-two capacity
-/// that starts empty and doubles (moving to the arena's end) up to `max_ring`, which is above the
-/// number of entries a walk can step over on one wire (4 * window); a full ring of that size
-/// overwrites its oldest entry, which no walk can reach. One arena instead of a vector per wire
-/// keeps the lists' tails in few (huge) pages, and the memory bounded by wires * max_ring.
+/// of at most `max_ring` entries, which is above the number of entries a walk can step over on one
+/// wire (4 * window); a full ring of that size overwrites its oldest entry, which no walk can
+/// reach. Each sweep lays the rings out once, sized by the wire's entry count in the previous sweep
+/// of the same pass (counted from the ops before the first), so the arena is one block that holds
+/// at most wires * max_ring entries however long the circuit; a ring that still fills up (an
+/// insertion) moves to the arena's end at twice its size. One block instead of a vector per wire
+/// keeps the lists' tails in few (huge) pages.
 struct RewriteBuffers::Lists {
     struct Ring {
         uint64_t offset = 0;  ///< first slot in the arena
@@ -44,20 +47,41 @@ struct RewriteBuffers::Lists {
         uint32_t length = 0;  ///< entries ever pushed (or inserted) on the wire; the last `capacity` are kept
     };
     std::vector<WireEntry> arena;
-    std::vector<Ring> rings;    ///< by wire
-    std::vector<uint8_t> state;  ///< by position: kLive, kWall, kStale
+    std::vector<Ring> rings;         ///< by wire
+    std::vector<uint32_t> expected;  ///< by wire: entries the next sweep will likely push
+    std::vector<uint8_t> state;      ///< by position: kLive, kWall, kStale
     uint32_t max_ring = 0;
 
-    void reset(uint32_t wires, uint32_t max_ring_entries) {
-        arena.clear();
-        rings.assign(wires, Ring{});
+    void reset(const ir::Circuit& c, uint32_t max_ring_entries) {
+        const uint32_t wires = c.num_qubits();
         max_ring = max_ring_entries;
+        if (expected.size() != wires) {  // the pass's first sweep: count each wire's ops
+            expected.assign(wires, 0);
+            for (const ir::Op& op : c.ops) {
+                if (op.target != ir::kNoWire) ++expected[op.target];
+                if (op.target2 != ir::kNoWire) ++expected[op.target2];
+                for (ir::Lit l : op.controls) ++expected[l.wire()];
+            }
+        } else {
+            for (uint32_t w = 0; w < wires; ++w) expected[w] = rings[w].length;
+        }
+        rings.resize(wires);
+        uint64_t total = 0;
+        for (uint32_t w = 0; w < wires; ++w) {
+            // Room for two insertions before a ring has to move.
+            const uint32_t cap = expected[w] == 0 ? 0 : std::min(max_ring, std::bit_ceil(std::min(expected[w], max_ring) + 2));
+            rings[w] = Ring{total, cap, 0};
+            total += cap;
+        }
+        arena.clear();
+        arena.reserve(total + total / 8 + 64);  // moved rings go past `total` without reallocating
+        arena.resize(total);
     }
     /// Oldest logical index still kept on the wire.
     uint32_t first(const Ring& r) const { return r.length > r.capacity ? r.length - r.capacity : 0; }
     WireEntry& at(const Ring& r, uint32_t k) { return arena[r.offset + (k & (r.capacity - 1))]; }
     void grow(Ring& r) {
-        const uint32_t fresh = r.capacity == 0 ? 8 : 2 * r.capacity;
+        const uint32_t fresh = r.capacity == 0 ? 8 : std::min(max_ring, 2 * r.capacity);
         const uint64_t offset = arena.size();
         arena.resize(offset + fresh);
         for (uint32_t k = 0; k < r.length; ++k) arena[offset + (k & (fresh - 1))] = at(r, k);
@@ -128,7 +152,7 @@ public:
           n_(uint32_t(c.ops.size())), lists_(lists), state_(lists.state) {
         // The arena is cleared, not freed: a later sweep reuses the capacity an earlier one grew.
         // A walk steps over at most 4 * window entries of one wire (see place()).
-        lists_.reset(c.num_qubits(), uint32_t(std::bit_ceil(4 * uint64_t(limits.window) + 1)));
+        lists_.reset(c, uint32_t(std::bit_ceil(4 * uint64_t(limits.window) + 1)));
     }
 
     bool run() {

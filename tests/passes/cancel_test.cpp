@@ -1,7 +1,9 @@
 // cancel: textbook identities (Nielsen & Chuang ch. 4; practice) and random circuits on the simulators.
 #include <doctest/doctest.h>
 
+#include "passes/backward_rewriter.h"
 #include "passes/cancel.h"
+#include "passes/combine_rules.h"
 #include "passes/normalize.h"
 #include "pass_check.h"
 
@@ -167,4 +169,33 @@ TEST_CASE("cancel is idempotent and never adds T on random Clifford+T circuits")
         CHECK_FALSE(passes::cancel(again, {}).changed);
         CHECK(again.ops.size() == c.ops.size());
     }
+}
+
+TEST_CASE("the rewriter with a window of 2 (per-wire rings of 16 entries that wrap) on long random circuits") {
+    // 400-600 ops on 3-5 wires put far more than 16 entries on every wire, so the rings wrap and
+    // insertions (kickbacks, merged wires) meet full rings; the result must stay the same map.
+    std::mt19937_64 rng(29);
+    RandomSpec spec;
+    spec.min_qubits = 3;
+    spec.max_qubits = 5;
+    spec.min_ops = 400;
+    spec.max_ops = 600;
+    int changed = 0;
+    for (int i = 0; i < 40; ++i) {
+        Circuit c = random_circuit(rng, spec);
+        passes::normalize(c, {});
+        const Circuit before = c;
+        passes::PassResult r;
+        passes::RewriteBuffers buffers;
+        passes::RewriteLimits limits;
+        limits.window = 2;
+        limits.kickback = i % 2 == 0;
+        bool any = false;
+        for (int sweep = 0; sweep < 4; ++sweep)
+            any = passes::rewrite_backwards(c, passes::kCancelRule, r, buffers, limits, sweep % 2 == 1) || any;
+        verify(c);
+        if (any) ++changed;
+        CHECK((circuit_unitary(before) - circuit_unitary(c)).norm() < 1e-8);
+    }
+    CHECK(changed > 30);
 }
