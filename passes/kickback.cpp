@@ -18,36 +18,6 @@ bool involution_kind(OpKind k) {
     return k == OpKind::X || k == OpKind::Y || k == OpKind::H || k == OpKind::Swap || k == OpKind::Phase;
 }
 
-/// `x` = X(t; C), `other` = B controlled on t (see kickback_move); on success `extra` = E.
-bool kick(const Op& x, const Op& other, Op& extra) {
-    if (x.kind != OpKind::X || x.controls.empty() || !is_involution(other)) return false;
-    const uint32_t t = x.target;
-    if (other.target == t || other.target2 == t) return false;
-    int at = -1;
-    for (size_t i = 0; i < other.controls.size(); ++i)
-        if (other.controls[i].wire() == t) {
-            if (at >= 0) return false;
-            at = int(i);
-        }
-    if (at < 0) return false;
-    for (Lit c : x.controls)
-        if (c.wire() == other.target || c.wire() == other.target2) return false;
-    extra = other;
-    extra.pair = 0;
-    extra.half = ir::PairHalf::None;
-    extra.controls.erase(extra.controls.begin() + at);
-    for (Lit c : x.controls) {
-        auto it = std::find_if(extra.controls.begin(), extra.controls.end(), [&](Lit l) { return l.wire() == c.wire(); });
-        if (it == extra.controls.end()) {
-            extra.controls.push_back(c);
-            continue;
-        }
-        if (*it != c) return false;  // D & C is never true: E is the identity (and A, B were orthogonal)
-    }
-    std::sort(extra.controls.begin(), extra.controls.end());
-    return true;
-}
-
 uint64_t toffoli_chain_t(size_t controls) { return controls < 2 ? 0 : 7 * (2 * uint64_t(controls) - 3); }
 
 /// estimated_t_cost of an op of kind `kind` with `k` controls (`involution`: is_involution holds).
@@ -62,34 +32,50 @@ uint64_t t_cost_of(OpKind kind, size_t k, bool involution) {
     }
 }
 
-/// kick() deciding only whether it succeeds and how many controls E gets (E has `other`'s kind
-/// and angle, so is_involution(E) == is_involution(other), which kick() requires).
-bool kick_controls(const Op& x, const Op& other, size_t& controls) {
+/// `x` = X(t; C), `other` = B controlled on t (see kickback_move): whether they form a kickback
+/// pair whose E is not the identity. On true, `at` is the index of B's control on t and `controls`
+/// E's number of controls (B's without the one on t, plus those of C on other wires).
+bool kick_shape(const Op& x, const Op& other, size_t& at, size_t& controls) {
     if (x.kind != OpKind::X || x.controls.empty() || !is_involution(other)) return false;
     const uint32_t t = x.target;
     if (other.target == t || other.target2 == t) return false;
-    int at = -1;
+    int found_at = -1;
     for (size_t i = 0; i < other.controls.size(); ++i)
         if (other.controls[i].wire() == t) {
-            if (at >= 0) return false;
-            at = int(i);
+            if (found_at >= 0) return false;
+            found_at = int(i);
         }
-    if (at < 0) return false;
+    if (found_at < 0) return false;
+    at = size_t(found_at);
     for (Lit c : x.controls)
         if (c.wire() == other.target || c.wire() == other.target2) return false;
-    // E's controls: other's without the one on t, then each of x's that is not there yet (x's
-    // controls are on distinct wires, none of them t, so only other's can already hold a wire).
+    // x's controls are on distinct wires, none of them t, so only B's can already hold a wire.
     controls = other.controls.size() - 1;
     for (Lit c : x.controls) {
-        bool found = false;
+        bool shared = false;
         for (size_t i = 0; i < other.controls.size(); ++i) {
-            if (int(i) == at || other.controls[i].wire() != c.wire()) continue;
-            if (other.controls[i] != c) return false;
-            found = true;
+            if (i == at || other.controls[i].wire() != c.wire()) continue;
+            if (other.controls[i] != c) return false;  // D & C is never true: E is the identity (and A, B were orthogonal)
+            shared = true;
             break;
         }
-        if (!found) ++controls;
+        if (!shared) ++controls;
     }
+    return true;
+}
+
+/// On success `extra` = E (see kick_shape).
+bool kick(const Op& x, const Op& other, Op& extra) {
+    size_t at = 0, controls = 0;
+    if (!kick_shape(x, other, at, controls)) return false;
+    extra = other;
+    extra.pair = 0;
+    extra.half = ir::PairHalf::None;
+    extra.controls.erase(extra.controls.begin() + std::ptrdiff_t(at));
+    for (Lit c : x.controls)
+        if (std::none_of(extra.controls.begin(), extra.controls.end(), [&](Lit l) { return l.wire() == c.wire(); }))
+            extra.controls.push_back(c);
+    std::sort(extra.controls.begin(), extra.controls.end());
     return true;
 }
 
@@ -102,10 +88,10 @@ bool kickback_move(const Op& earlier, const Op& mover, Op& extra) {
 
 bool kickback_cost(const Op& earlier, const Op& mover, uint64_t& extra_t_cost) {
     if (is_fence(earlier) || is_fence(mover)) return false;
-    size_t k = 0;
+    size_t at = 0, k = 0;
     const Op* other = &mover;
-    if (!kick_controls(earlier, mover, k)) {
-        if (!kick_controls(mover, earlier, k)) return false;
+    if (!kick_shape(earlier, mover, at, k)) {
+        if (!kick_shape(mover, earlier, at, k)) return false;
         other = &earlier;
     }
     extra_t_cost = t_cost_of(other->kind, k, other->kind == OpKind::Phase && is_involution(*other));
