@@ -39,8 +39,25 @@ void write_output(const std::string& path, const std::string& text) {
     }
     namespace fs = std::filesystem;
     fs::path target(path);
-    fs::path dir = target.has_parent_path() ? target.parent_path() : fs::path(".");
     std::error_code ec;
+    // A symbolic link stays a link: the file it names gets the text.
+    if (fs::is_symlink(target, ec)) {
+        const fs::path resolved = fs::weakly_canonical(target, ec);
+        if (!ec) target = resolved;
+    }
+    // A device, pipe or socket (/dev/null, /dev/stdout, a named pipe) is written as it is: renaming
+    // a finished file over it would replace the device with a regular file.
+    const fs::file_status st = fs::status(target, ec);
+    if (!ec && fs::exists(st) && !fs::is_regular_file(st)) {
+        if (fs::is_directory(st)) throw UserError(fmt::format("cannot write '{}': it is a folder", path));
+        std::ofstream out(target, std::ios::binary);
+        if (!out) throw UserError(fmt::format("cannot write '{}'", path));
+        out << text;
+        out.flush();
+        if (!out) throw UserError(fmt::format("cannot write '{}'", path));
+        return;
+    }
+    fs::path dir = target.has_parent_path() ? target.parent_path() : fs::path(".");
     if (!fs::is_directory(dir, ec)) throw UserError(fmt::format("cannot write '{}': folder '{}' does not exist", path, dir.string()));
     std::random_device rd;
     fs::path tmp = dir / fmt::format(".{}.tmp{:08x}", target.filename().string(), rd());
