@@ -86,6 +86,13 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
         }
     }
     std::vector<Form> form(n_ops, Form::Exact);
+    // The relative-phase form is not symmetric in its controls (its diagonal is CZ(a,t) CS^dagger(a,b)),
+    // so both halves of a pair are emitted with the compute half's control order: an uncompute whose
+    // controls are written the other way round is swapped back.
+    std::vector<uint8_t> swap_controls(n_ops, 0);
+    for (size_t i = 0; i < n_ops; ++i)
+        if (partner[i] != kNoPartner && partner[i] < i)
+            swap_controls[i] = c.ops[i].controls[0].wire() != c.ops[partner[i]].controls[0].wire();
     {
         lowering::CleanWireTracker tracker(c);
         for (size_t i = 0; i < n_ops; ++i) {
@@ -128,7 +135,8 @@ PassResult lower_toffoli(ir::Circuit& c, const PassOptions& opts) {
         s.inherit(op);
         for (Lit l : op.controls)
             if (!l.positive()) s.x(l.wire());
-        const uint32_t a = op.controls[0].wire(), b = op.controls[1].wire();
+        uint32_t a = op.controls[0].wire(), b = op.controls[1].wire();
+        if (swap_controls[i]) std::swap(a, b);
         if (is_ccz(op)) {
             const uint32_t d = op.controls[2].wire();
             if (depth) lowering::ccz_tdepth3(s, a, b, d);

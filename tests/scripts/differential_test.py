@@ -1,0 +1,550 @@
+#!/usr/bin/python3
+"""Differential test: random circuits rich in Toffoli pairs, compiled for every target and level,
+each output checked by an independent numpy simulator (not the project's checker).
+
+The generator writes each circuit as .wq text and, beside it, its meaning as a list of numpy
+operations written here from textbook definitions (X-type gates flip the target when every control
+literal holds; phase(θ) multiplies by e^{iθ} when the product holds, or by e^{iθ(x1 xor ...)} on a
+parity; H, S, T, Rz(θ) = exp(-iθZ/2) as in Nielsen & Chuang ch. 4: common practice). It stresses what
+relative-phase and measured-uncompute lowering rely on: compute/uncompute pairs with the controls in
+either order, negative controls, shared controls, pair targets reused as controls, multi-controlled
+ops and diagonal phases between the halves, nested and overlapping pairs, ops that disturb a pair's
+wires between the halves (so the pair must not be treated as one), declared clean work wires used
+inside `compute` blocks, and `when` blocks.
+
+Each circuit is compiled with `whittle compile` as a batch per (target, level, measurement)
+configuration, emitted as OpenQASM 2.0 and simulated here with textbook matrices for the gates of
+the 2.0 header (Cross, Bishop, Smolin, Gambetta 2017, arXiv:1707.03429; matrices from memory,
+common practice) plus iswap, rxx and r (textbook definitions, common practice). The check: for random
+input states on the data wires, with every clean work wire (declared or added by the compiler) at
+|0>, every measurement branch of the output is proportional to the reference's output state with the
+work wires back at |0> (up to a global phase per branch; a unitary output has one branch).
+
+WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number of circuits (default
+120); a failure prints the .wq input, the configuration and a command that reproduces it.
+"""
+import math
+import os
+import random
+import re
+import shutil
+import subprocess
+import sys
+import tempfile
+
+import numpy as np
+
+WHITTLE = os.environ.get("WHITTLE_BIN", "whittle")
+SEED = int(os.environ.get("WHITTLE_DIFF_SEED", "1"))
+CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "120"))
+TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
+LEVELS = ["-O0", "-O1", "-O2", "-O3"]
+STATES = 3  # random input states per check
+
+
+# ----------------------------------------------------------------------------------------------
+# The generator: .wq text and the reference meaning, op by op.
+#
+# A reference op is one of
+#   ("x", target, [(wire, polarity), ...])      target ^= AND of the literals
+#   ("phase", theta, [(wire, polarity), ...])   e^{i theta} on the product (empty: global phase)
+#   ("parity", theta, [wire, ...])              e^{i theta (x1 xor x2 ...)}
+#   ("u1", matrix, wire, [(wire, polarity)...]) a one-qubit matrix under controls
+#   ("swap", a, b)
+
+H = np.array([[1, 1], [1, -1]], dtype=complex) / math.sqrt(2)
+S = np.diag([1, 1j])
+T = np.diag([1, np.exp(1j * math.pi / 4)])
+
+
+def rz(t):
+    return np.diag([np.exp(-0.5j * t), np.exp(0.5j * t)])
+
+
+def ry(t):
+    c, s = math.cos(t / 2), math.sin(t / 2)
+    return np.array([[c, -s], [s, c]], dtype=complex)
+
+
+class Program:
+    def __init__(self, n_data, n_clean, classical):
+        self.n_data, self.n_clean, self.classical = n_data, n_clean, classical
+        self.lines = []
+        self.ops = []
+
+    def name(self, w):
+        return f"q[{w}]" if w < self.n_data else f"w[{w - self.n_data}]"
+
+    def lit(self, wire, pol):
+        return ("" if pol else "!") + self.name(wire)
+
+    def mcx(self, target, lits, ops=None, lines=None):
+        (lines if lines is not None else self.lines).append(
+            f"{self.name(target)} ^= " + " & ".join(self.lit(w, p) for w, p in lits) if lits else f"x {self.name(target)}")
+        (ops if ops is not None else self.ops).append(("x", target, list(lits)))
+
+    def text(self):
+        head = f"qubit q[{self.n_data}]\n"
+        if self.n_clean:
+            head += f"ancilla w[{self.n_clean}]\n"
+        return head + "\n".join(self.lines) + "\n"
+
+
+def pick(rng, pool, k):
+    return rng.sample(pool, k)
+
+
+def lits_of(rng, wires, neg_rate=0.25):
+    return [(w, rng.random() >= neg_rate) for w in wires]
+
+
+def one_qubit_line(rng, prog, w, ops, lines):
+    kind = "x" if prog.classical else rng.choice(["h", "s", "t", "~t", "~s", "rz", "x"])
+    nm = prog.name(w)
+    if kind == "h":
+        lines.append(f"h {nm}")
+        ops.append(("u1", H, w, []))
+    elif kind == "s":
+        lines.append(f"s {nm}")
+        ops.append(("u1", S, w, []))
+    elif kind == "~s":
+        lines.append(f"~s {nm}")
+        ops.append(("u1", S.conj().T, w, []))
+    elif kind == "t":
+        lines.append(f"t {nm}")
+        ops.append(("u1", T, w, []))
+    elif kind == "~t":
+        lines.append(f"~t {nm}")
+        ops.append(("u1", T.conj().T, w, []))
+    elif kind == "x":
+        lines.append(f"x {nm}")
+        ops.append(("x", w, []))
+    else:
+        k = rng.choice([1, 3, 5, -1, -3, 7, 2])
+        lines.append(f"rz({k}*pi/8) {nm}")
+        ops.append(("u1", rz(k * math.pi / 8), w, []))
+
+
+def quiet_middle(rng, prog, pair_wires, others, ops, lines):
+    """Ops between two pair halves that leave the pair's wires' values alone: ops on other wires,
+    ops using the pair's wires only as controls, diagonal phases on them."""
+    for _ in range(rng.randint(0, 4)):
+        r = rng.random()
+        if r < 0.3 and others:
+            one_qubit_line(rng, prog, rng.choice(others), ops, lines)
+        elif r < 0.6 and others:
+            tgt = rng.choice(others)
+            pool = [w for w in pair_wires + others if w != tgt]
+            k = min(len(pool), rng.choice([1, 2, 2, 3]))
+            prog.mcx(tgt, lits_of(rng, pick(rng, pool, k)), ops, lines)
+        elif prog.classical:
+            continue
+        elif r < 0.8:
+            ws = pick(rng, pair_wires, rng.randint(1, min(3, len(pair_wires))))
+            theta = rng.choice(["pi", "pi/2", "pi/4", "-pi/4", "3*pi/4"])
+            lit = lits_of(rng, ws)
+            lines.append(f"phase({theta}) " + " & ".join(prog.lit(w, p) for w, p in lit))
+            ops.append(("phase", eval(theta.replace("pi", "math.pi")), lit))
+        else:
+            ws = pick(rng, pair_wires + others, min(len(pair_wires + others), rng.randint(1, 3)))
+            theta = rng.choice(["pi/4", "-pi/4", "pi/2"])
+            lines.append(f"phase({theta}) " + " ^ ".join(prog.name(w) for w in ws))
+            ops.append(("parity", eval(theta.replace("pi", "math.pi")), list(ws)))
+
+
+def toffoli_pair(rng, prog, wires):
+    """A Toffoli or MCX, a middle, and the same op again with its controls in any order (the pair a
+    compiler may lower with relative phases). Sometimes the middle disturbs a pair wire."""
+    k = rng.choice([2, 2, 2, 3])
+    chosen = pick(rng, wires, k + 1)
+    target, ctrls = chosen[0], chosen[1:]
+    lits = lits_of(rng, ctrls)
+    prog.mcx(target, lits)
+    others = [w for w in wires if w not in chosen]
+    quiet_middle(rng, prog, chosen, others, prog.ops, prog.lines)
+    if rng.random() < 0.15:  # a middle op that does disturb a pair wire: no longer a pair
+        one_qubit_line(rng, prog, rng.choice(chosen), prog.ops, prog.lines)
+    if rng.random() < 0.3:  # a nested pair that uses the outer target as a control
+        inner_pool = [w for w in wires if w not in ctrls]
+        if len(inner_pool) >= 3:
+            it = rng.choice([w for w in inner_pool if w != target])
+            ic = [target] + pick(rng, [w for w in inner_pool if w not in (target, it)], 1)
+            il = lits_of(rng, ic)
+            prog.mcx(it, il)
+            quiet_middle(rng, prog, [it] + ic, [w for w in wires if w not in [it] + ic], prog.ops, prog.lines)
+            rng.shuffle(il)
+            prog.mcx(it, il)
+    shuffled = list(lits)
+    rng.shuffle(shuffled)
+    prog.mcx(target, shuffled)
+
+
+def compute_block(rng, prog, data):
+    """compute { w ^= ... } then { ... } on a declared clean wire: the frontend keeps the pairing."""
+    w = prog.n_data + rng.randrange(prog.n_clean)
+    ctrls = pick(rng, data, rng.choice([2, 2, 3]))
+    lits = lits_of(rng, ctrls)
+    a_ops, a_lines = [], []
+    prog.mcx(w, lits, a_ops, a_lines)
+    b_ops, b_lines = [], []
+    # The middle may read the compute's controls but not write them (else w would not come back).
+    free = [d for d in data if d not in ctrls]
+    tgt = rng.choice(free)
+    pool = [x for x in data if x != tgt]
+    prog.mcx(tgt, [(w, True)] + lits_of(rng, pick(rng, pool, rng.choice([0, 1]))), b_ops, b_lines)
+    if rng.random() < 0.5 and not prog.classical:
+        d = rng.choice(data)
+        b_lines.append(f"phase(pi) {prog.name(w)} & {prog.name(d)}")
+        b_ops.append(("phase", math.pi, [(w, True), (d, True)]))
+    prog.lines.append("compute { " + "; ".join(a_lines) + " } then { " + "; ".join(b_lines) + " }")
+    prog.ops += a_ops + b_ops + list(reversed(a_ops))
+
+
+def when_block(rng, prog, data):
+    c = rng.choice(data)
+    others = [d for d in data if d != c]
+    t = rng.choice(others)
+    kind = rng.choice(["h", "t", "ry"])
+    pol = rng.random() < 0.8
+    if kind == "h":
+        prog.lines.append(f"when {prog.lit(c, pol)} {{ h {prog.name(t)} }}")
+        prog.ops.append(("u1", H, t, [(c, pol)]))
+    elif kind == "t":
+        prog.lines.append(f"when {prog.lit(c, pol)} {{ t {prog.name(t)} }}")
+        prog.ops.append(("u1", T, t, [(c, pol)]))
+    else:
+        prog.lines.append(f"when {prog.lit(c, pol)} {{ ry(pi/4) {prog.name(t)} }}")
+        prog.ops.append(("u1", ry(math.pi / 4), t, [(c, pol)]))
+
+
+def random_program(rng, classical):
+    """A random program; a classical one (X-type ops only) is one the nct target can take too."""
+    n_data = rng.randint(4, 7)
+    n_clean = rng.choice([0, 0, 1, 2])
+    prog = Program(n_data, n_clean, classical)
+    data = list(range(n_data))
+    for _ in range(rng.randint(3, 9)):
+        r = rng.random()
+        if r < 0.45:
+            toffoli_pair(rng, prog, data)
+        elif r < 0.6 and n_clean:
+            compute_block(rng, prog, data)
+        elif r < 0.7 and not classical:
+            when_block(rng, prog, data)
+        elif r < 0.85:
+            one_qubit_line(rng, prog, rng.choice(data), prog.ops, prog.lines)
+        elif r < 0.95:
+            k = rng.choice([1, 2, 3, 4])
+            ws = pick(rng, data, min(n_data, k + 1))
+            prog.mcx(ws[0], lits_of(rng, ws[1:]))
+        else:
+            a, b = pick(rng, data, 2)
+            prog.lines.append(f"{prog.name(a)} <-> {prog.name(b)}")
+            prog.ops.append(("swap", a, b))
+    return prog
+
+
+# ----------------------------------------------------------------------------------------------
+# State-vector simulation on a batch of states: psi has shape (2,)*n + (K,); wire i is axis i.
+
+def apply_1q(psi, m, w, ctrls):
+    n = psi.ndim - 1
+    if not ctrls:
+        return np.moveaxis(np.tensordot(m, psi, axes=([1], [w])), 0, w)
+    idx = [slice(None)] * (n + 1)
+    for c, pol in ctrls:
+        idx[c] = 1 if pol else 0
+    sub = psi[tuple(idx)]
+    # the target's axis inside the sub-array: count the removed axes before it
+    tw = w - sum(1 for c, _ in ctrls if c < w)
+    out = psi.copy()
+    out[tuple(idx)] = np.moveaxis(np.tensordot(m, sub, axes=([1], [tw])), 0, tw)
+    return out
+
+
+def mask(n, lits, k):
+    shape = [1] * n + [1]
+    m = np.ones([2] * n + [1], dtype=bool)
+    for w, pol in lits:
+        sel = np.zeros(2, dtype=bool)
+        sel[1 if pol else 0] = True
+        s = list(shape)
+        s[w] = 2
+        m = m & sel.reshape(s)
+    return m
+
+
+X = np.array([[0, 1], [1, 0]], dtype=complex)
+
+
+def apply_ref(psi, op):
+    n = psi.ndim - 1
+    kind = op[0]
+    if kind == "x":
+        return apply_1q(psi, X, op[1], op[2])
+    if kind == "phase":
+        return np.where(mask(n, op[2], 1), psi * np.exp(1j * op[1]), psi)
+    if kind == "parity":
+        par = np.zeros([2] * n + [1], dtype=int)
+        for w in op[2]:
+            s = [1] * (n + 1)
+            s[w] = 2
+            par = par ^ np.arange(2).reshape(s)
+        return psi * np.exp(1j * op[1] * par)
+    if kind == "u1":
+        return apply_1q(psi, op[1], op[2], op[3])
+    if kind == "swap":
+        return np.swapaxes(psi, op[1], op[2]).copy()
+    raise ValueError(kind)
+
+
+# ----------------------------------------------------------------------------------------------
+# OpenQASM 2.0 output: registers, gates, measure, if.
+
+def u3(theta, phi, lam):
+    return np.array([[math.cos(theta / 2), -np.exp(1j * lam) * math.sin(theta / 2)],
+                     [np.exp(1j * phi) * math.sin(theta / 2), np.exp(1j * (phi + lam)) * math.cos(theta / 2)]])
+
+
+def rx(t):
+    c, s = math.cos(t / 2), math.sin(t / 2)
+    return np.array([[c, -1j * s], [-1j * s, c]])
+
+
+def r_gate(theta, phi):
+    # R(θ, φ) = exp(-iθ/2 (cos φ X + sin φ Y)) (common practice for trapped-ion native rotations)
+    c, s = math.cos(theta / 2), math.sin(theta / 2)
+    return np.array([[c, -1j * np.exp(-1j * phi) * s], [-1j * np.exp(1j * phi) * s, c]])
+
+
+ONE_QUBIT = {
+    "h": lambda: H, "x": lambda: X, "y": lambda: np.array([[0, -1j], [1j, 0]]), "z": lambda: np.diag([1, -1]),
+    "s": lambda: S, "sdg": lambda: S.conj().T, "t": lambda: T, "tdg": lambda: T.conj().T,
+    "sx": lambda: np.array([[1 + 1j, 1 - 1j], [1 - 1j, 1 + 1j]]) / 2,
+    "sxdg": lambda: (np.array([[1 + 1j, 1 - 1j], [1 - 1j, 1 + 1j]]) / 2).conj().T,
+    "id": lambda: np.eye(2),
+}
+PARAM_1Q = {
+    "rz": lambda a: rz(a[0]), "rx": lambda a: rx(a[0]), "ry": lambda a: ry(a[0]),
+    "u1": lambda a: np.diag([1, np.exp(1j * a[0])]), "p": lambda a: np.diag([1, np.exp(1j * a[0])]),
+    "u3": lambda a: u3(*a), "u": lambda a: u3(*a), "U": lambda a: u3(*a), "u2": lambda a: u3(math.pi / 2, a[0], a[1]),
+    "r": lambda a: r_gate(*a),
+}
+
+
+def eval_angle(text):
+    text = text.strip()
+    if not re.fullmatch(r"[0-9pi+\-*/(). e]*", text):
+        raise ValueError(f"angle {text!r}")
+    return float(eval(text, {"__builtins__": {}}, {"pi": math.pi}))
+
+
+class QasmOutput:
+    def __init__(self, text):
+        self.qregs = {}  # name -> (first wire, size)
+        self.cregs = {}  # name -> size
+        self.n = 0
+        self.ops = []  # (cond or None, name, args, wires)
+        for raw in text.split("\n"):
+            line = raw.split("//")[0].strip()
+            if not line or line.startswith("OPENQASM") or line.startswith("include") or line.startswith("gate "):
+                continue
+            for stmt in filter(None, (s.strip() for s in line.split(";"))):
+                self.parse(stmt)
+
+    def wire(self, ref):
+        m = re.fullmatch(r"(\w+)\[(\d+)\]", ref.strip())
+        first, size = self.qregs[m.group(1)]
+        assert int(m.group(2)) < size
+        return first + int(m.group(2))
+
+    def parse(self, stmt):
+        m = re.fullmatch(r"qreg (\w+)\[(\d+)\]", stmt)
+        if m:
+            self.qregs[m.group(1)] = (self.n, int(m.group(2)))
+            self.n += int(m.group(2))
+            return
+        m = re.fullmatch(r"creg (\w+)\[(\d+)\]", stmt)
+        if m:
+            self.cregs[m.group(1)] = int(m.group(2))
+            return
+        cond = None
+        m = re.fullmatch(r"if\s*\((\w+)\s*==\s*(\d+)\)\s*(.*)", stmt)
+        if m:
+            cond = (m.group(1), int(m.group(2)))
+            stmt = m.group(3)
+        m = re.fullmatch(r"measure (\S+)\s*->\s*(\w+)\[(\d+)\]", stmt)
+        if m:
+            self.ops.append((cond, "measure", (m.group(2), int(m.group(3))), [self.wire(m.group(1))]))
+            return
+        if stmt.startswith("barrier"):
+            return
+        m = re.fullmatch(r"(\w+)(?:\((.*)\))?\s+(.*)", stmt)
+        name, args, wires = m.group(1), m.group(2), m.group(3)
+        vals = [eval_angle(a) for a in args.split(",")] if args else []
+        self.ops.append((cond, name, vals, [self.wire(w) for w in wires.split(",")]))
+
+    def run(self, psi):
+        """Every measurement branch: a list of (unnormalized state, classical values)."""
+        branches = [(psi, {})]
+        for cond, name, args, wires in self.ops:
+            nxt = []
+            for state, cv in branches:
+                if cond is not None:
+                    reg, val = cond
+                    bits = cv.get(reg, {})
+                    value = sum((bits.get(i, 0) << i) for i in range(self.cregs[reg]))
+                    if value != val:
+                        nxt.append((state, cv))
+                        continue
+                if name == "measure":
+                    w = wires[0]
+                    for outcome in (0, 1):
+                        idx = [slice(None)] * state.ndim
+                        idx[w] = 1 - outcome
+                        s2 = state.copy()
+                        s2[tuple(idx)] = 0
+                        if np.linalg.norm(s2) > 1e-9:
+                            c2 = {k: dict(v) for k, v in cv.items()}
+                            c2.setdefault(args[0], {})[args[1]] = outcome
+                            nxt.append((s2, c2))
+                    continue
+                nxt.append((self.gate(state, name, args, wires), cv))
+            branches = nxt
+        return branches
+
+    @staticmethod
+    def gate(psi, name, args, w):
+        if name in ONE_QUBIT:
+            return apply_1q(psi, ONE_QUBIT[name](), w[0], [])
+        if name in PARAM_1Q:
+            return apply_1q(psi, PARAM_1Q[name](args), w[0], [])
+        if name == "cx":
+            return apply_1q(psi, X, w[1], [(w[0], True)])
+        if name == "ccx":
+            return apply_1q(psi, X, w[2], [(w[0], True), (w[1], True)])
+        if name == "cz":
+            return apply_1q(psi, np.diag([1, -1]), w[1], [(w[0], True)])
+        if name in ("cu1", "cp"):
+            return apply_1q(psi, np.diag([1, np.exp(1j * args[0])]), w[1], [(w[0], True)])
+        if name == "swap":
+            return np.swapaxes(psi, w[0], w[1]).copy()
+        if name == "iswap":
+            # iSWAP: |01> -> i|10>, |10> -> i|01> (common practice)
+            out = psi.copy()
+            idx = lambda a, b: tuple([a if k == w[0] else b if k == w[1] else slice(None) for k in range(psi.ndim)])
+            out[idx(0, 1)] = 1j * psi[idx(1, 0)]
+            out[idx(1, 0)] = 1j * psi[idx(0, 1)]
+            return out
+        if name == "rxx":
+            # RXX(θ) = exp(-iθ/2 X⊗X) (common practice)
+            theta = args[0]
+            flipped = np.flip(np.flip(psi, axis=w[0]), axis=w[1])
+            return math.cos(theta / 2) * psi - 1j * math.sin(theta / 2) * flipped
+        raise ValueError(f"gate {name} is not known to the differential simulator")
+
+
+# ----------------------------------------------------------------------------------------------
+
+def reference_states(prog, rng_np):
+    n = prog.n_data + prog.n_clean
+    data = rng_np.normal(size=(2 ** prog.n_data, STATES)) + 1j * rng_np.normal(size=(2 ** prog.n_data, STATES))
+    data /= np.linalg.norm(data, axis=0)
+    psi = np.zeros((2 ** prog.n_data, 2 ** prog.n_clean, STATES), dtype=complex)
+    psi[:, 0, :] = data
+    psi = psi.reshape([2] * n + [STATES])
+    out = psi
+    for op in prog.ops:
+        out = apply_ref(out, op)
+    return data, out
+
+
+def check_output(prog, text, data, ref_out):
+    """None when the output is right, else a message."""
+    q = QasmOutput(text)
+    order = [q.wire(prog.name(w)) for w in range(prog.n_data + prog.n_clean)]
+    extra = [w for w in range(q.n) if w not in order]
+    # Input: data wires as given, declared and added clean wires at |0>.
+    n = q.n
+    psi = np.zeros([2] * n + [STATES], dtype=complex)
+    src = np.zeros([2] * (prog.n_data + prog.n_clean) + [STATES], dtype=complex)
+    src.reshape(2 ** prog.n_data, 2 ** prog.n_clean, STATES)[:, 0, :] = data
+    # place src into psi at the output's wire positions, extra wires at 0
+    idx = [slice(None)] * (n + 1)
+    for w in extra:
+        idx[w] = 0
+    perm = order + [n]  # src axes -> psi axes
+    psi_sub = np.zeros([2] * (n - len(extra)) + [STATES], dtype=complex)
+    # psi_sub has the output's non-extra wires in increasing output order
+    kept = sorted(order)
+    axes = [kept.index(o) for o in order] + [len(kept)]
+    psi_sub = np.moveaxis(src, list(range(len(axes))), axes)
+    psi[tuple(idx)] = psi_sub
+    expect = np.zeros_like(psi)
+    exp_sub = np.moveaxis(ref_out, list(range(len(axes))), axes)
+    expect[tuple(idx)] = exp_sub
+    for state, cv in q.run(psi):
+        for k in range(STATES):
+            s, e = state[..., k].ravel(), expect[..., k].ravel()
+            ns = np.linalg.norm(s)
+            if ns < 1e-9:
+                continue
+            overlap = abs(np.vdot(e, s))
+            if abs(overlap - ns) > 1e-6 * max(1.0, ns):
+                return f"branch {cv or '(unitary)'} state {k}: |<expected|output>| = {overlap:.6f}, |output| = {ns:.6f}"
+    return None
+
+
+def main():
+    if shutil.which(WHITTLE) is None and not os.path.exists(WHITTLE):
+        print(f"whittle binary not found: {WHITTLE}")
+        return 77
+    rng = random.Random(SEED)
+    rng_np = np.random.default_rng(SEED)
+    tmp = tempfile.mkdtemp(prefix="whittle-diff-")
+    progs = []
+    for i in range(CIRCUITS):
+        # One in four is classical (X-type only), so the nct target has inputs too.
+        prog = random_program(rng, classical=i % 4 == 3)
+        path = os.path.join(tmp, f"c{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
+    configs = [(t, o, False) for t in TARGETS for o in LEVELS] + [("clifford+t", o, True) for o in LEVELS]
+    checked = failures = refused = 0
+    all_progs = progs
+    for target, level, meas in configs:
+        progs = [p for p in all_progs if p[1].classical] if target == "nct" else all_progs
+        outdir = os.path.join(tmp, f"{target}{level}{'-m' if meas else ''}".replace("+", "_"))
+        os.mkdir(outdir)
+        cmd = [WHITTLE, "compile", "-q", "-j", "2", "--target", target, level, "--emit", "qasm2", "-o", outdir]
+        if meas:
+            cmd.append("--allow-measurement")
+        res = subprocess.run(cmd + [p[0] for p in progs], capture_output=True, text=True)
+        for path, prog, data, ref_out in progs:
+            out = os.path.join(outdir, os.path.basename(path)[:-3] + ".qasm")
+            how = f"{WHITTLE} compile {path} --target {target} {level}{' --allow-measurement' if meas else ''} --emit qasm2"
+            if not os.path.exists(out):
+                err = [l for l in res.stderr.split("\n") if l.startswith(path)]
+                if target == "nct" and err and "has no NOT/CNOT/Toffoli form without a work wire" in err[0]:
+                    refused += 1  # a legitimate refusal: an n-control X on all n+1 wires is an odd permutation
+                    continue
+                failures += 1
+                err = [l for l in res.stderr.split("\n") if l.startswith(path)]
+                print(f"FAIL (no output; exit {res.returncode}) {how}\n  {err[:1]}\n--- input\n{prog.text()}")
+                continue
+            with open(out) as f:
+                msg = check_output(prog, f.read(), data, ref_out)
+            checked += 1
+            if msg:
+                failures += 1
+                print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
+    shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
+    print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations: "
+          f"{checked} outputs checked by numpy, {failures} failures, {refused} refused with a located reason (nct)")
+    print(f"{checked - failures} passed, {failures} failed")
+    return 1 if failures else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
