@@ -1,6 +1,7 @@
 // `whittle compile`: read, optimize, lower, check and emit; several inputs compile in parallel (-j).
 #include <algorithm>
 #include <atomic>
+#include <chrono>
 #include <filesystem>
 #include <iostream>
 #include <map>
@@ -17,6 +18,7 @@
 #include "frontend/cli/verify_hook.h"
 #include "frontend/load.h"
 #include "ir/printer.h"
+#include "ir/resources.h"
 #include "lowering/emit_qasm.h"
 #include "lowering/report.h"
 #include "passes/pipeline.h"
@@ -33,6 +35,7 @@ struct CompileArgs {
     std::string optimize_for = "t";
     bool allow_measurement = false;
     bool verify = false;
+    bool no_check = false;
     std::string report;
     std::string emit;
     std::string passes;
@@ -71,6 +74,10 @@ passes::Metric parse_metric(const std::string& s) {
     throw UserError(fmt::format("--optimize-for takes t, 2q or depth, not '{}'", s));
 }
 
+/// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are
+/// reported as not checked (the copy and the check would cost more than the compile's budget).
+constexpr size_t kFinalCheckMaxOps = size_t(1) << 18;
+
 /// Compiles one input; diagnostics and --stats / --dump-after text go to `err`.
 int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::ostream& err) {
     frontend::SourceManager sm;
@@ -98,7 +105,9 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
         }
         // The input as read, kept for the report's "input_resources" only when a report is asked for.
         ir::Circuit source;
-        if (!a.report.empty()) source = c;
+        const bool final_check = !a.no_check && c.ops.size() <= kFinalCheckMaxOps;
+        if (!a.report.empty() || final_check) source = c;
+        const auto compile_start = std::chrono::steady_clock::now();
         if (a.verify) hooks.verify = PassVerifier(verify_folder_for(job.output), passes::EquivOptions{}, job.verify_tag);
         ProgressLine progress(show_progress);
         hooks.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
@@ -111,6 +120,18 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
             return kCheckFailed;
         }
         progress.finish();
+        const double compile_seconds =
+            std::chrono::duration<double>(std::chrono::steady_clock::now() - compile_start).count();
+        std::string verdict = a.no_check ? "not checked (--no-check)"
+                                         : fmt::format("not checked: the input has over {} ops", kFinalCheckMaxOps);
+        if (final_check) {
+            const FinalCheck check = check_final_output(source, c, compile_seconds);
+            if (check.verdict == passes::Verdict::NotEquivalent) {
+                err << check.failure;
+                return kCheckFailed;
+            }
+            verdict = check.summary;
+        }
         if (a.stats || a.time_passes) {
             for (const passes::PassRecord& r : records) {
                 std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
@@ -143,6 +164,11 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
             write_output(a.report, lowering::compile_report(ri).dump(2) + "\n");
         }
         write_output(job.output, text);
+        if (!a.quiet) {
+            const ir::Resources res = ir::count_resources(c);
+            err << fmt::format("{}: {} qubits, T {}, two-qubit {}, depth {}; {}\n", job.input, res.qubits, res.t_count,
+                               res.two_qubit_count, res.depth, verdict);
+        }
         return kOk;
     }, err);
 }
@@ -243,6 +269,8 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_flag("--allow-measurement", args->allow_measurement,
                   "allow measurement-based uncompute and classical feed-forward in the output");
     cmd->add_flag("--verify", args->verify, "check equivalence after every pass; stop at the first pass that breaks it");
+    cmd->add_flag("--no-check", args->no_check,
+                  "skip the check of the output against the input (run by default within max(2 s, 10% of the compile time))");
     cmd->add_option("--report", args->report, "write a JSON resource report to this file");
     cmd->add_option("--emit", args->emit, "output format: wq, qasm2 or qasm3 (overrides the extension)");
     cmd->add_option("--passes", args->passes, "run exactly this comma-separated list of passes instead of an -O pipeline");

@@ -137,15 +137,30 @@ TEST_CASE("compile --verify stops at a pass that breaks equivalence, names it an
     fs::remove_all(dir);
 }
 
-TEST_CASE("the broken pass goes unnoticed without --verify, and a correct pipeline verifies cleanly") {
+TEST_CASE("without --verify the final check catches the broken pass; --no-check lets it through") {
     register_broken_pass_once();
     const fs::path dir = scratch_folder("pass");
     const fs::path in = dir / "berth.wq", out = dir / "out.wq";
     std::ofstream(in) << kProgram;
 
-    // Without --verify the wrong circuit is written: it is --verify that catches the pass.
+    // The default final check compares the output with the input: exit 1, no output file.
     CliRun run = run_whittle({"compile", in.string(), "-o", out.string(), "--passes",
                               std::string("normalize,") + kBrokenPass, "--quiet"});
+    INFO(run.err);
+    CHECK(run.exit_code == 1);
+    CHECK(run.err.find("not equivalent to the input") != std::string::npos);
+    CHECK(run.err.find("counterexample") != std::string::npos);
+    CHECK_FALSE(fs::exists(out));
+
+    // A correct compile prints its summary line with the verdict.
+    run = run_whittle({"compile", in.string(), "-o", out.string(), "--target", "clifford+t"});
+    CHECK(run.exit_code == 0);
+    CHECK(run.err.find("verified exact") != std::string::npos);
+    fs::remove(out);
+
+    // With --no-check the wrong circuit is written (the user asked for no check).
+    run = run_whittle({"compile", in.string(), "-o", out.string(), "--passes",
+                       std::string("normalize,") + kBrokenPass, "--quiet", "--no-check"});
     CHECK(run.exit_code == 0);
     REQUIRE(fs::exists(out));
     CHECK(passes::check_equivalence(load(in), load(out)).verdict == passes::Verdict::NotEquivalent);
