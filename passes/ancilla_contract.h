@@ -20,7 +20,7 @@ struct AncillaContract {
 
 /// Checks that for every input with the clean wires at |0>, the circuit leaves them at |0>.
 /// X-type and phase circuits exactly (output polynomials); pi/4-phase circuits exactly by path sums
-/// and exact basis simulation (every input when few vary, else random ones, which can only find a
+/// (up to 64 H-like gates) and exact basis simulation (every input when few vary, else random ones, which can only find a
 /// violation); other unitary circuits of up to 20 wires numerically by state vectors. Circuits with
 /// measurements are Undecided. Stops after about `seconds`.
 AncillaContract check_ancilla_contract(const ir::Circuit& c, double seconds);

@@ -1,6 +1,7 @@
 // `whittle equiv A B`: exit 0 equivalent, 1 not equivalent, 2 error or inconclusive.
 #include <iostream>
 #include <memory>
+#include <optional>
 
 #include <fmt/format.h>
 
@@ -25,12 +26,17 @@ struct EquivArgs {
     std::vector<std::string> maps;  // FIRST=SECOND
 };
 
-/// Refuses a program that does not return a declared ancilla to |0> (the comparison assumes it
-/// does); returns a note when that could not be decided.
-std::string check_contract(const ir::Circuit& c, const std::string& file, const char* side, double seconds) {
+/// A program that does not return a declared ancilla to |0> breaks the comparison's assumption:
+/// returns the located error for it (empty when it keeps it), and a note when it is undecided.
+struct ContractFinding {
+    std::optional<UserError> violation;
+    std::string note;
+};
+
+ContractFinding check_contract(const ir::Circuit& c, const std::string& file, const char* side, double seconds) {
     const passes::AncillaContract r = passes::check_ancilla_contract(c, seconds);
     if (r.status == passes::AncillaContract::Status::Undecided)
-        return fmt::format("  ancillas:       not decided for the {} program ({})\n", side, r.method);
+        return {std::nullopt, fmt::format("  ancillas:       not decided for the {} program ({})\n", side, r.method)};
     if (r.status == passes::AncillaContract::Status::Ok) return {};
     ir::SourceLoc loc;  // the last op on the wire: where it is left
     for (const ir::Op& op : c.ops)
@@ -39,8 +45,9 @@ std::string check_contract(const ir::Circuit& c, const std::string& file, const 
     const std::string msg =
         fmt::format("ancilla '{}' is not returned to |0> (input {} leaves it {}; {})", c.wire_name(r.wire),
                     passes::format_contract_input(c, r.input), r.at_one ? "at 1" : "in a superposition", r.method);
-    if (loc.known()) throw UserError(msg, loc);
-    throw UserError(fmt::format("{} (the {} program, '{}')", msg, side, file));
+    const std::string note = fmt::format("  ancillas:       the {} program ('{}'): {}\n", side, file, msg);
+    if (loc.known()) return {UserError(msg, loc), note};
+    return {UserError(fmt::format("{} (the {} program, '{}')", msg, side, file)), note};
 }
 
 int run_equiv(const EquivArgs& args) {
@@ -57,13 +64,21 @@ int run_equiv(const EquivArgs& args) {
                 throw UserError(fmt::format("--map '{}': expected FIRST=SECOND (register names)", m));
             opts.register_map.emplace_back(m.substr(0, eq), m.substr(eq + 1));
         }
-        std::string notes = check_contract(a, args.files[0], "first", args.time_budget / 10);
-        notes += check_contract(b, args.files[1], "second", args.time_budget / 10);
+        const ContractFinding ca = check_contract(a, args.files[0], "first", args.time_budget / 10);
+        const ContractFinding cb = check_contract(b, args.files[1], "second", args.time_budget / 10);
+        const std::string notes = ca.note + cb.note;
         opts.time_budget_seconds = args.time_budget;
         opts.allow_probabilistic = !args.exact_only;
         opts.seed = args.seed;
         opts.random_states = args.states;
         const passes::EquivResult r = passes::check_equivalence(a, b, opts);
+        // A side that leaves a declared ancilla dirty: a difference found anyway is reported as
+        // usual (exit 1, the violation as a note); otherwise the answer would rest on a broken
+        // promise, so it is refused.
+        if (r.verdict != passes::Verdict::NotEquivalent) {
+            if (ca.violation) throw *ca.violation;
+            if (cb.violation) throw *cb.violation;
+        }
         std::cout << passes::verdict_name(r.verdict) << "\n";
         std::cout << fmt::format("  engine:         {}\n  confidence:     {}\n", r.engine, r.confidence);
         if (!r.counterexample.empty()) std::cout << fmt::format("  counterexample: {}\n", r.counterexample);
