@@ -13,6 +13,7 @@
 #include "frontend/qasm2/expr.h"
 #include "frontend/qasm2/header_gates.h"
 #include "frontend/qasm2/lexer.h"
+#include "lowering/qasm_names.h"
 
 namespace whittle::frontend {
 namespace {
@@ -74,6 +75,7 @@ public:
 
     ir::Circuit run(uint32_t file_id) {
         parse_file(file_id, true);
+        apply_annotations(file_id);
         for (size_t i = 0; i < sm_.size(); ++i) c_.files.push_back(sm_.name(uint32_t(i)));
         return std::move(c_);
     }
@@ -121,6 +123,54 @@ private:
             throw UserError("expected 'OPENQASM 2.0;' at the start of the file", lx.peek().loc);
         }
         while (lx.peek().kind != Tok::End) statement(lx, file_id);
+    }
+
+    /// `// whittle: qreg WRITTEN source NAME role ROLE` lines (lowering/qasm_names.h) in the main file:
+    /// the register written as WRITTEN is the source's NAME, a `qubit`, `ancilla` or `borrow`.
+    void apply_annotations(uint32_t file_id) {
+        const std::string& text = sm_.text(file_id);
+        const std::string_view marker = lowering::kQasmAnnotation;
+        std::vector<std::pair<int, std::string>> renames;
+        uint32_t line = 1;
+        for (size_t pos = 0; pos < text.size(); ++line) {
+            size_t end = text.find('\n', pos);
+            if (end == std::string::npos) end = text.size();
+            const std::string_view l(text.data() + pos, end - pos);
+            const size_t start = l.find_first_not_of(" \t");
+            if (start != std::string_view::npos && l.substr(start, marker.size()) == marker) {
+                const SourceLoc loc{uint16_t(file_id), line, uint32_t(start + 1)};
+                std::vector<std::string> words;
+                for (size_t i = start + marker.size(); i < l.size();) {
+                    while (i < l.size() && (l[i] == ' ' || l[i] == '\t' || l[i] == '\r')) ++i;
+                    size_t j = i;
+                    while (j < l.size() && l[j] != ' ' && l[j] != '\t' && l[j] != '\r') ++j;
+                    if (j > i) words.emplace_back(l.substr(i, j - i));
+                    i = j;
+                }
+                if (words.size() != 5 || words[1] != "source" || words[3] != "role")
+                    throw UserError("expected 'REGISTER source NAME role ROLE' after 'whittle: qreg'", loc);
+                const int r = c_.find_register(words[0]);
+                if (r < 0) throw UserError(fmt::format("the annotation names no quantum register '{}'", words[0]), loc);
+                ir::Role role;
+                if (words[4] == "qubit") role = ir::Role::Data;
+                else if (words[4] == "ancilla") role = ir::Role::Clean;
+                else if (words[4] == "borrow") role = ir::Role::Dirty;
+                else throw UserError(fmt::format("unknown role '{}' (expected qubit, ancilla or borrow)", words[4]), loc);
+                ir::Register& reg = c_.registers[size_t(r)];
+                reg.role = role;
+                for (uint32_t i = 0; i < reg.size; ++i) c_.qubits[reg.first + i].role = role;
+                if (words[2] != words[0]) {
+                    if (c_.find_register(words[2]) >= 0 || c_.find_creg(words[2]) >= 0)
+                        throw UserError(fmt::format("the annotation's source name '{}' is already a register", words[2]), loc);
+                    for (const auto& [other, name] : renames)
+                        if (name == words[2])
+                            throw UserError(fmt::format("two registers have the source name '{}'", words[2]), loc);
+                    renames.emplace_back(r, words[2]);
+                }
+            }
+            pos = end + 1;
+        }
+        for (const auto& [r, name] : renames) c_.registers[size_t(r)].name = name;
     }
 
     void statement(Lexer& lx, uint32_t file_id) {

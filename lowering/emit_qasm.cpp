@@ -25,7 +25,7 @@ std::string text(const Angle& a) { return a.to_string(); }
 
 class Writer {
 public:
-    Writer(const Circuit& c, Dialect d) : c_(c), d_(d), names_(qasm_names(c)) {
+    Writer(const Circuit& c, Dialect d) : c_(c), d_(d), names_(qasm_names(c, d == Dialect::V3)) {
         bit_reg_.assign(c.num_cbits, -1);
         for (size_t r = 0; r < c.cregs.size(); ++r)
             for (uint32_t i = 0; i < c.cregs[r].size; ++i)
@@ -39,6 +39,7 @@ public:
         for (const Op& op : c_.ops) emit(op);
         std::string out = d_ == Dialect::V2 ? "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
                                             : "OPENQASM 3.0;\ninclude \"stdgates.inc\";\n";
+        for (const std::string& r : names_.annotations) out += r + "\n";
         for (const std::string& r : names_.renames) out += r + "\n";
         out += definitions();
         for (size_t i = 0; i < c_.registers.size(); ++i) {

@@ -11,13 +11,22 @@ namespace whittle::lowering {
 struct QasmNames {
     std::vector<std::string> qregs;  ///< one per Circuit::registers entry
     std::vector<std::string> cregs;  ///< one per Circuit::cregs entry
-    /// "// register X is written as Y" lines for every name that had to change.
+    /// "// register X is written as Y" lines for every classical register name that had to change.
     std::vector<std::string> renames;
+    /// `// whittle: qreg WRITTEN source NAME role ROLE` for every quantum register whose name had
+    /// to change or whose role is not `qubit` (clean and dirty work wires, the compiler's `work`
+    /// registers): the OpenQASM 2.0 reader takes the name and the role back from it.
+    std::vector<std::string> annotations;
 };
 
-/// Keeps each register name when it is a valid OpenQASM 2.0 and 3.0 identifier (lowercase first
-/// letter, then letters, digits, '_'), not a keyword or a gate name, and not taken; otherwise
-/// derives a close unique one. Quantum and classical registers share one namespace.
-QasmNames qasm_names(const ir::Circuit& c);
+/// Keeps each register name when it is a valid identifier of the dialect (lowercase first letter,
+/// then letters, digits, '_'), not one of its keywords and not the name of a gate the output
+/// includes or defines, and not taken; otherwise derives a close unique one. Quantum and
+/// classical registers share one namespace. `v3`: OpenQASM 3.0 (its keywords and stdgates.inc);
+/// else 2.0 (its keywords and the qelib1.inc gates of every header version).
+QasmNames qasm_names(const ir::Circuit& c, bool v3);
+
+/// The marker that starts an annotation line (what the 2.0 reader looks for).
+constexpr const char* kQasmAnnotation = "// whittle: qreg ";
 
 }  // namespace whittle::lowering

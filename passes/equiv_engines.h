@@ -19,7 +19,9 @@ struct Aligned {
     uint32_t num_wires() const { return a.num_qubits(); }
 };
 
-Aligned align(const ir::Circuit& a, const ir::Circuit& b);
+/// Throws UserError when both sides have data registers the other lacks (see check_equivalence).
+Aligned align(const ir::Circuit& a, const ir::Circuit& b,
+              const std::vector<std::pair<std::string, std::string>>& register_map = {});
 
 /// "a=5 b=0 flag=1" for a basis state given as one bit per merged wire (all registers, in order).
 std::string format_basis(const Aligned& al, const std::vector<uint8_t>& bits);
@@ -54,6 +56,12 @@ EngineResult check_phase(const Aligned& al, const EquivOptions& opts, const Dead
 /// Engine 3: path sums (see path_sum.h).
 EngineResult check_path_sum(const Aligned& al, const EquivOptions& opts, const Deadline& dl);
 
+/// Witness search: random basis inputs through both circuits, simulated exactly and sparsely
+/// (exact_basis.h); finds "not equivalent" with a verified input, never decides "equivalent".
+/// nullopt outside pi/4-phase circuits; stops after `max_inputs` inputs or `seconds`.
+EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const Deadline& dl, double seconds,
+                           int max_inputs);
+
 /// Engine 4: state-vector simulation (full unitary, random states, measurement branches).
 EngineResult check_simulate(const Aligned& al, const EquivOptions& opts, const Deadline& dl);
 constexpr uint32_t kUnitaryWires = 12;
@@ -71,6 +79,7 @@ constexpr const char* kPathSum = "path-sum";
 constexpr const char* kUnitary = "unitary";
 constexpr const char* kRandomStates = "random-states";
 constexpr const char* kBranches = "branches";
+constexpr const char* kWitness = "basis-witness";
 }  // namespace name
 
 /// Shared helpers for engines.

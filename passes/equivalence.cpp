@@ -30,10 +30,9 @@ ir::Role merged_role(const ir::Circuit& a, int ra, const ir::Circuit& b, int rb,
         if (x == ir::Role::Dirty || y == ir::Role::Dirty) return ir::Role::Dirty;
         return ir::Role::Data;
     }
-    // A wire one side adds: the other side leaves it alone, so it is a clean ancilla unless the
-    // side that has it only borrows it.
-    const ir::Role only = in_a ? role_of(a, ra) : role_of(b, rb);
-    return only == ir::Role::Dirty ? ir::Role::Dirty : ir::Role::Clean;
+    // A wire one side has: the other side leaves it alone, and its role is what the side that has
+    // it declares (a data wire there takes every input).
+    return in_a ? role_of(a, ra) : role_of(b, rb);
 }
 
 ir::Circuit remapped(const ir::Circuit& src, const ir::Circuit& table, const std::vector<uint32_t>& map) {
@@ -55,23 +54,60 @@ ir::Circuit remapped(const ir::Circuit& src, const ir::Circuit& table, const std
 
 }  // namespace
 
-Aligned align(const ir::Circuit& a, const ir::Circuit& b) {
+Aligned align(const ir::Circuit& a, const ir::Circuit& b,
+              const std::vector<std::pair<std::string, std::string>>& register_map) {
+    // The second circuit's registers under the names they are matched by.
+    ir::Circuit bn;
+    bn.registers = b.registers;
+    bn.qubits = b.qubits;
+    for (const auto& [first, second] : register_map) {
+        if (a.find_register(first) < 0)
+            throw UserError(fmt::format("register map: the first program has no quantum register '{}'", first));
+        const int r = b.find_register(second);
+        if (r < 0) throw UserError(fmt::format("register map: the second program has no quantum register '{}'", second));
+        for (const auto& [f2, s2] : register_map)
+            if ((f2 == first) != (s2 == second))
+                throw UserError(fmt::format("register map: '{}' and '{}' are paired more than once", first, second));
+        bn.registers[size_t(r)].name = "\x01" + first;  // marked until every pair is renamed
+    }
+    for (ir::Register& r : bn.registers)
+        if (!r.name.empty() && r.name[0] == '\x01') r.name = r.name.substr(1);
+        else if (a.find_register(r.name) >= 0)
+            for (const auto& [first, second] : register_map)
+                if (first == r.name)
+                    throw UserError(fmt::format("register map: the second program's register '{}' is matched by name "
+                                                "and also paired with '{}'", r.name, second));
+    // Data registers on one side only are fine (the other side leaves them alone), but both sides
+    // having some means the names do not match (a writer's rename, a typo): guessing would compare
+    // the wrong wires.
+    auto data_only_in = [](const ir::Circuit& x, const ir::Circuit& y) {
+        std::string list;
+        for (const ir::Register& r : x.registers)
+            if (y.find_register(r.name) < 0 && r.role == ir::Role::Data)
+                list += fmt::format("{}'{}'", list.empty() ? "" : ", ", r.name);
+        return list;
+    };
+    const std::string only_a = data_only_in(a, bn), only_b = data_only_in(bn, a);
+    if (!only_a.empty() && !only_b.empty())
+        throw UserError(fmt::format("the registers do not match: {} only in the first program, {} only in the "
+                                    "second; pair them with --map FIRST=SECOND",
+                                    only_a, only_b));
     ir::Circuit table;
     std::vector<std::string> names;
     for (const ir::Register& r : a.registers) names.push_back(r.name);
-    for (const ir::Register& r : b.registers)
+    for (const ir::Register& r : bn.registers)
         if (a.find_register(r.name) < 0) names.push_back(r.name);
     for (const std::string& name : names) {
-        const int ra = a.find_register(name), rb = b.find_register(name);
+        const int ra = a.find_register(name), rb = bn.find_register(name);
         const uint32_t sa = ra >= 0 ? a.registers[size_t(ra)].size : 0;
-        const uint32_t sb = rb >= 0 ? b.registers[size_t(rb)].size : 0;
+        const uint32_t sb = rb >= 0 ? bn.registers[size_t(rb)].size : 0;
         const uint32_t size = std::max(sa, sb);
-        const bool scalar = sa == sb ? (ra >= 0 ? a.registers[size_t(ra)].scalar : b.registers[size_t(rb)].scalar)
+        const bool scalar = sa == sb ? (ra >= 0 ? a.registers[size_t(ra)].scalar : bn.registers[size_t(rb)].scalar)
                                      : false;
-        const uint32_t first = table.add_register(name, size, merged_role(a, ra, b, rb, 0), scalar && size == 1);
-        for (uint32_t i = 0; i < size; ++i) table.qubits[first + i].role = merged_role(a, ra, b, rb, i);
+        const uint32_t first = table.add_register(name, size, merged_role(a, ra, bn, rb, 0), scalar && size == 1);
+        for (uint32_t i = 0; i < size; ++i) table.qubits[first + i].role = merged_role(a, ra, bn, rb, i);
     }
-    auto wire_map = [&](const ir::Circuit& c) {
+    auto wire_map = [&](const ir::Circuit& c) {  // `c` is a or bn (b's registers, matched names)
         std::vector<uint32_t> map(c.num_qubits());
         for (uint32_t w = 0; w < c.num_qubits(); ++w) {
             const ir::Qubit& q = c.qubits[w];
@@ -83,7 +119,7 @@ Aligned align(const ir::Circuit& a, const ir::Circuit& b) {
     };
     Aligned al;
     al.a = remapped(a, table, wire_map(a));
-    al.b = remapped(b, table, wire_map(b));
+    al.b = remapped(b, table, wire_map(bn));
     al.clean.resize(table.num_qubits());
     for (uint32_t w = 0; w < table.num_qubits(); ++w) {
         al.clean[w] = table.qubits[w].role == ir::Role::Clean;
@@ -153,7 +189,7 @@ EquivResult inconclusive(const char* engine, std::string why) {
 
 EquivResult check_equivalence(const ir::Circuit& a, const ir::Circuit& b, const EquivOptions& opts) {
     using namespace equiv;
-    const Aligned al = align(a, b);
+    const Aligned al = align(a, b, opts.register_map);
     const Deadline dl(opts.time_budget_seconds);
     std::string tried;
     auto finish = [&](EquivResult r) {
@@ -161,9 +197,18 @@ EquivResult check_equivalence(const ir::Circuit& a, const ir::Circuit& b, const 
         return r;
     };
     // Engine order: the exact engines for the narrowest class first. Each returns nullopt when the
-    // circuits are outside its class and Inconclusive when it applies but cannot decide.
+    // circuits are outside its class and Inconclusive when it applies but cannot decide. Before the
+    // path sum (which can spend half the budget and still stall on large circuits), a short witness
+    // search; after it, a long one when no state vector fits.
+    auto quick_witness = [](const Aligned& x, const EquivOptions& o, const Deadline& d) {
+        return check_witness(x, o, d, o.time_budget_seconds / 10, 32);
+    };
+    auto long_witness = [](const Aligned& x, const EquivOptions& o, const Deadline& d) -> EngineResult {
+        if (x.num_wires() <= kSimulateWires) return std::nullopt;
+        return check_witness(x, o, d, o.time_budget_seconds, 1 << 20);
+    };
     EngineResult (*const engines[])(const Aligned&, const EquivOptions&, const Deadline&) = {
-        check_classical, check_phase, check_path_sum, check_simulate};
+        check_classical, check_phase, quick_witness, check_path_sum, long_witness, check_simulate};
     for (auto engine : engines) {
         if (dl.expired()) break;
         EngineResult r = engine(al, opts, dl);

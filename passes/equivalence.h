@@ -3,6 +3,8 @@
 
 #include <cstdint>
 #include <string>
+#include <utility>
+#include <vector>
 
 #include "ir/circuit.h"
 
@@ -13,6 +15,8 @@ struct EquivOptions {
     int random_states = 6;            ///< random input states for the simulation fallback
     uint64_t seed = 1;
     bool allow_probabilistic = true;  ///< when false, sampling and random-state answers are inconclusive
+    /// Registers matched although named differently: (name in the first circuit, name in the second).
+    std::vector<std::pair<std::string, std::string>> register_map;
 };
 
 enum class Verdict { Equivalent, NotEquivalent, Inconclusive };
@@ -29,10 +33,14 @@ struct EquivResult {
 
 /// Checks that `a` and `b` are equal up to global phase (Circuit::global_phase included).
 ///
-/// Wires are matched by register name and index; a wire present on one side only is a clean
-/// ancilla (a `borrow` wire of that side stays dirty). Clean wires (`ancilla`) start at |0> and only
-/// those inputs matter, so both sides must agree there (returning the wire to |0> when the other
-/// side leaves it alone); `borrow` and data wires take every input. With measurement and
+/// Wires are matched by register name (or `register_map`) and index. A wire present on one side
+/// only keeps that side's role: a declared `ancilla` (or a compiler work wire, which is one) is a
+/// clean ancilla, a `borrow` wire a dirty one, a data wire takes every input and the other side
+/// leaves it alone. When both sides have data registers the other lacks, the names do not match:
+/// throws UserError naming them (unless `register_map` pairs them). Clean wires start at |0> and
+/// only those inputs matter; every engine compares every wire's final value, clean wires included,
+/// so one side leaving an ancilla dirty where the other returns it is a difference. Whether a side
+/// keeps its own ancilla promise is check_ancilla_contract (ancilla_contract.h). With measurement and
 /// feed-forward every branch must give the reference state, up to a phase per branch; clean wires
 /// whose last op is a measurement count as reset afterwards.
 ///

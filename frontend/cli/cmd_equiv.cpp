@@ -1,12 +1,15 @@
 // `whittle equiv A B`: exit 0 equivalent, 1 not equivalent, 2 error or inconclusive.
 #include <iostream>
 #include <memory>
+#include <optional>
 
 #include <fmt/format.h>
 
 #include "frontend/cli/commands.h"
 #include "frontend/cli/driver.h"
 #include "frontend/load.h"
+#include "ir/error.h"
+#include "passes/ancilla_contract.h"
 #include "passes/equivalence.h"
 
 namespace whittle::cli {
@@ -20,7 +23,32 @@ struct EquivArgs {
     int states = 6;
     bool explain = false;
     std::vector<std::string> include_dirs;
+    std::vector<std::string> maps;  // FIRST=SECOND
 };
+
+/// A program that does not return a declared ancilla to |0> breaks the comparison's assumption:
+/// returns the located error for it (empty when it keeps it), and a note when it is undecided.
+struct ContractFinding {
+    std::optional<UserError> violation;
+    std::string note;
+};
+
+ContractFinding check_contract(const ir::Circuit& c, const std::string& file, const char* side, double seconds) {
+    const passes::AncillaContract r = passes::check_ancilla_contract(c, seconds);
+    if (r.status == passes::AncillaContract::Status::Undecided)
+        return {std::nullopt, fmt::format("  ancillas:       not decided for the {} program ({})\n", side, r.method)};
+    if (r.status == passes::AncillaContract::Status::Ok) return {};
+    ir::SourceLoc loc;  // the last op on the wire: where it is left
+    for (const ir::Op& op : c.ops)
+        for (uint32_t w : op.wires())
+            if (w == r.wire) loc = op.loc;
+    const std::string msg =
+        fmt::format("ancilla '{}' is not returned to |0> (input {} leaves it {}; {})", c.wire_name(r.wire),
+                    passes::format_contract_input(c, r.input), r.at_one ? "at 1" : "in a superposition", r.method);
+    const std::string note = fmt::format("  ancillas:       the {} program ('{}'): {}\n", side, file, msg);
+    if (loc.known()) return {UserError(msg, loc), note};
+    return {UserError(fmt::format("{} (the {} program, '{}')", msg, side, file)), note};
+}
 
 int run_equiv(const EquivArgs& args) {
     frontend::SourceManager sm;
@@ -30,14 +58,31 @@ int run_equiv(const EquivArgs& args) {
         const ir::Circuit a = frontend::load_file(args.files[0], sm, lo);
         const ir::Circuit b = frontend::load_file(args.files[1], sm, lo);
         passes::EquivOptions opts;
+        for (const std::string& m : args.maps) {
+            const size_t eq = m.find('=');
+            if (eq == std::string::npos || eq == 0 || eq + 1 == m.size())
+                throw UserError(fmt::format("--map '{}': expected FIRST=SECOND (register names)", m));
+            opts.register_map.emplace_back(m.substr(0, eq), m.substr(eq + 1));
+        }
+        const ContractFinding ca = check_contract(a, args.files[0], "first", args.time_budget / 10);
+        const ContractFinding cb = check_contract(b, args.files[1], "second", args.time_budget / 10);
+        const std::string notes = ca.note + cb.note;
         opts.time_budget_seconds = args.time_budget;
         opts.allow_probabilistic = !args.exact_only;
         opts.seed = args.seed;
         opts.random_states = args.states;
         const passes::EquivResult r = passes::check_equivalence(a, b, opts);
+        // A side that leaves a declared ancilla dirty: a difference found anyway is reported as
+        // usual (exit 1, the violation as a note); otherwise the answer would rest on a broken
+        // promise, so it is refused.
+        if (r.verdict != passes::Verdict::NotEquivalent) {
+            if (ca.violation) throw *ca.violation;
+            if (cb.violation) throw *cb.violation;
+        }
         std::cout << passes::verdict_name(r.verdict) << "\n";
         std::cout << fmt::format("  engine:         {}\n  confidence:     {}\n", r.engine, r.confidence);
         if (!r.counterexample.empty()) std::cout << fmt::format("  counterexample: {}\n", r.counterexample);
+        std::cout << notes;
         if (args.explain) std::cout << "  engines tried:\n" << [&] {
             std::string s;
             size_t start = 0;
@@ -74,6 +119,8 @@ void add_equiv_command(CLI::App& app, int& exit_code) {
     cmd->add_option("--states", args->states, "random input states for the simulation fallback")->capture_default_str();
     cmd->add_flag("--explain", args->explain, "list every engine tried and why it did or did not decide");
     cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");
+    cmd->add_option("--map", args->maps,
+                    "FIRST=SECOND: the first program's register FIRST is the second's SECOND (repeatable)");
     cmd->callback([args, &exit_code]() { exit_code = run_equiv(*args); });
 }
 

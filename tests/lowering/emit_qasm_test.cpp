@@ -309,12 +309,39 @@ TEST_CASE("register names are kept unless OpenQASM cannot take them") {
     std::string t = lowering::emit_qasm2(c);
     CHECK(contains(t, "qreg crane[2];\n"));
     CHECK(contains(t, "qreg q_U[1];\n"));
-    CHECK(contains(t, "// register 'U' is written as 'q_U'\n"));
+    CHECK(contains(t, "// whittle: qreg q_U source U role qubit\n"));
+    CHECK(contains(t, "// whittle: qreg q_measure source measure role qubit\n"));
+    CHECK(contains(t, "// register 'crane' is written as 'crane_2'\n"));
     CHECK(contains(t, "qreg q_measure[1];\n"));
     CHECK(contains(t, "creg crane_2[1];\n"));
     CHECK(contains(t, "cx q_measure[0],q_U[0];\n"));
     ir::Circuit back = reimport(t);
     CHECK(back.registers[0].name == "crane");
+    // The reader takes the source names back from the annotations.
+    CHECK(back.registers[1].name == "U");
+    CHECK(back.registers[2].name == "measure");
+}
+
+TEST_CASE("a register a gate's name would take is renamed with an annotation; roles survive the round trip") {
+    ir::Circuit c;
+    c.add_register("z", 2, ir::Role::Data);
+    c.add_register("input", 1, ir::Role::Data);  // an OpenQASM 3.0 keyword, a plain name in 2.0
+    c.add_register("carry", 1, ir::Role::Clean);
+    c.add_register("spare", 1, ir::Role::Dirty);
+    c.ops.push_back(Op::x(3, {Lit::pos(0), Lit::pos(1)}));
+    const std::string t = lowering::emit_qasm2(c);
+    CHECK(contains(t, "qreg q_z[2];\n"));
+    CHECK(contains(t, "// whittle: qreg q_z source z role qubit\n"));
+    CHECK(contains(t, "qreg input[1];\n"));
+    CHECK(contains(t, "// whittle: qreg carry source carry role ancilla\n"));
+    CHECK(contains(t, "// whittle: qreg spare source spare role borrow\n"));
+    CHECK(contains(lowering::emit_qasm3(c), "qubit[1] q_input;\n"));
+    const ir::Circuit back = reimport(t);
+    REQUIRE(back.registers.size() == 4);
+    CHECK(back.registers[0].name == "z");
+    CHECK(back.registers[2].role == ir::Role::Clean);
+    CHECK(back.qubits[3].role == ir::Role::Clean);
+    CHECK(back.registers[3].role == ir::Role::Dirty);
 }
 
 TEST_CASE("OpenQASM 3.0 forms") {

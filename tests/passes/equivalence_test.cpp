@@ -5,6 +5,7 @@
 
 #include "frontend/load.h"
 #include "ir/classical_sim.h"
+#include "ir/error.h"
 #include "passes/equiv_engines.h"
 #include "passes/equivalence.h"
 #include "passes/pipeline.h"
@@ -163,7 +164,11 @@ TEST_CASE("kickback identities (practice, Nielsen & Chuang ch. 4)") {
     Circuit z_both = kick.empty_copy();
     z_both.ops = {z_gate(0)};
     CHECK(check_equivalence(kick, z_both).verdict == Verdict::NotEquivalent);
-    // One side only: `minus` counts as a clean ancilla even when declared data, so it holds again.
+    // One side only: `minus` declared data takes every input there too (the other side leaves it
+    // alone), so it does not hold; declared an ancilla on its side, it does.
+    CHECK(check_equivalence(kick, with_ops(wires(1), {z_gate(0)})).verdict == Verdict::NotEquivalent);
+    kick.qubits[1].role = Role::Clean;
+    kick.registers[1].role = Role::Clean;
     CHECK(check_equivalence(kick, with_ops(wires(1), {z_gate(0)})).verdict == Verdict::Equivalent);
 }
 
@@ -220,12 +225,16 @@ TEST_CASE("ancilla semantics: a dirtied clean wire is a difference") {
     EquivResult r = check_equivalence(a, b);
     CHECK(r.verdict == Verdict::NotEquivalent);
     CHECK(r.counterexample.find("w: 0 vs 1") != std::string::npos);
-    // A wire only one side has is a clean ancilla: CCZ through a temporary AND equals a plain CCZ.
+    // A wire only one side has keeps that side's role: declared an ancilla, CCZ through a temporary
+    // AND equals a plain CCZ; declared data, it takes every input and they differ.
     Circuit ccz = wires(3);
     ccz.ops = {Op::phase(Angle::pi_times(1), {Lit::pos(0), Lit::pos(1), Lit::pos(2)})};
     Circuit via = wires(3);
-    via.add_register("tmp", 1, Role::Data, true);  // declared data, but absent on the other side
+    via.add_register("tmp", 1, Role::Data, true);
     via.ops = {ccx(0, 1, 3), cz(3, 2), ccx(0, 1, 3)};
+    CHECK(check_equivalence(ccz, via).verdict == Verdict::NotEquivalent);
+    via.registers[1].role = Role::Clean;
+    via.qubits[3].role = Role::Clean;
     CHECK(check_equivalence(ccz, via).verdict == Verdict::Equivalent);
     via.ops.pop_back();
     CHECK(check_equivalence(ccz, via).verdict == Verdict::NotEquivalent);
@@ -321,8 +330,9 @@ TEST_CASE("60-qubit Clifford+T ripple-carry adder against its Toffoli form: path
     CHECK(r.engine == "path-sum");
     r = check_equivalence(toffolis, cuccaro_adder(n, true, true), opts);
     CHECK(r.verdict == Verdict::NotEquivalent);
-    CHECK(r.engine == "path-sum");
-    CHECK(r.counterexample.find("a=1") != std::string::npos);
+    CHECK(r.engine == "basis-witness");  // exact basis runs find it before the path sum is built
+    CHECK(r.confidence.rfind("exact", 0) == 0);
+    CHECK(r.counterexample.find("input") != std::string::npos);
 }
 
 namespace {
@@ -401,4 +411,99 @@ TEST_CASE("conditioned rotations, controlled or not, keep their meaning through 
         }
         CHECK(check_equivalence(source, out).verdict == Verdict::NotEquivalent);
     }
+}
+
+// ---- ancilla final values, witness search, wire matching -------------------------------------------
+
+namespace {
+
+passes::equiv::EngineResult run_named(passes::equiv::EngineResult (*engine)(const passes::equiv::Aligned&,
+                                                                             const passes::EquivOptions&,
+                                                                             const passes::equiv::Deadline&),
+                                      const std::string& a, const std::string& b) {
+    return run_engine(engine, wq(a), wq(b));
+}
+
+}  // namespace
+
+// Two programs that differ only in an ancilla's final value: one returns it, the other leaves it at
+// a (worked by hand: w ^= a leaves w = a). Every engine must see the difference.
+TEST_CASE("every engine compares the final value of clean ancillas") {
+    using namespace passes::equiv;
+    auto expect_diff = [](const EngineResult& r, const char* engine) {
+        REQUIRE(r);
+        CHECK(r->verdict == Verdict::NotEquivalent);
+        CHECK(r->engine == engine);
+    };
+    // bit-parallel: a few inputs.
+    expect_diff(run_named(check_classical, "qubit a, b\nancilla w\nw ^= a\nb ^= a\n", "qubit a, b\nancilla w\nb ^= a\n"),
+                name::kBitParallel);
+    // ANF: 24 free wires.
+    expect_diff(run_named(check_classical, "qubit a[24]\nancilla w\nw ^= a[0] & a[1]\n", "qubit a[24]\nancilla w\n"),
+                name::kAnf);
+    // sampling: d gets prod (a_i xor b_i) over 16 pairs (2^16 ANF terms, over the cap of 2^15).
+    std::string heavy = "qubit a[16], b[16], d\nancilla c[16]\nfor i in 0..15 { c[i] ^= a[i]; c[i] ^= b[i] }\n"
+                        "d ^= c[0]&c[1]&c[2]&c[3]&c[4]&c[5]&c[6]&c[7]&c[8]&c[9]&c[10]&c[11]&c[12]&c[13]&c[14]&c[15]\n"
+                        "for i in 0..15 { c[i] ^= a[i]; c[i] ^= b[i] }\nancilla w\n";
+    expect_diff(run_named(check_classical, heavy + "w ^= a[0]\n", heavy), name::kSampling);
+    // phase table: phases present, few inputs.
+    expect_diff(run_named(check_phase, "qubit a\nancilla w\nt a\nw ^= a\n", "qubit a\nancilla w\nt a\n"),
+                name::kPhaseTable);
+    // phase polynomial: 40 free wires.
+    expect_diff(run_named(check_phase, "qubit a[40]\nancilla w\nt a[0]\nw ^= a[3]\n", "qubit a[40]\nancilla w\nt a[0]\n"),
+                name::kPhasePoly);
+    // path sum: H H on a data wire, then the ancilla difference.
+    expect_diff(run_named(check_path_sum, "qubit a\nancilla w\nh a\nh a\nw ^= a\n", "qubit a\nancilla w\nh a\nh a\n"),
+                name::kPathSum);
+    // unitary (<= 12 wires, an angle the exact engines do not take), random states (13..25 wires).
+    expect_diff(run_named(check_simulate, "qubit a\nancilla w\nrx(0.3) a\nw ^= a\n", "qubit a\nancilla w\nrx(0.3) a\n"),
+                name::kUnitary);
+    expect_diff(run_named(check_simulate, "qubit a[14]\nancilla w\nrx(0.3) a[0]\nw ^= a[1]\n",
+                          "qubit a[14]\nancilla w\nrx(0.3) a[0]\n"),
+                name::kRandomStates);
+    // branches: a measurement elsewhere.
+    expect_diff(run_named(check_simulate, "qubit a, m\nancilla w\nh m\nmeasure m as r\nw ^= a\n",
+                          "qubit a, m\nancilla w\nh m\nmeasure m as r\n"),
+                name::kBranches);
+    // basis witness: exact basis runs.
+    const Aligned al = align(wq("qubit a[30]\nancilla w\nh a[0]\nh a[0]\nw ^= a[2]\n"), wq("qubit a[30]\nancilla w\nh a[0]\nh a[0]\n"));
+    passes::EquivOptions opts;
+    expect_diff(check_witness(al, opts, Deadline(10), 10, 64), name::kWitness);
+}
+
+// A T changed into a T-dagger inside a 7-T Toffoli (Nielsen & Chuang Fig. 4.9) among 40 wires: no
+// state vector fits; the exact basis runs find it.
+TEST_CASE("a T turned into T-dagger in a wide Clifford+T circuit is found with a verified witness") {
+    Circuit good = wires(40), bad = wires(40);
+    for (uint32_t i = 0; i + 2 < 40; i += 3) {
+        seven_t_toffoli(good.ops, i, i + 1, i + 2);
+        seven_t_toffoli(bad.ops, i, i + 1, i + 2, i == 18 ? int(kToffoliTOnTarget) : -1);
+    }
+    const EquivResult same = check_equivalence(good, good);
+    CHECK(same.verdict == Verdict::Equivalent);
+    const EquivResult r = check_equivalence(good, bad);
+    CHECK(r.verdict == Verdict::NotEquivalent);
+    CHECK(r.engine == "basis-witness");
+    CHECK(r.confidence.rfind("exact", 0) == 0);
+}
+
+// A wire one side lacks keeps that side's role: a data wire takes every input, and the other side
+// leaves it alone. (Before, it was a clean ancilla fixed at |0>, which hid this CNOT.)
+TEST_CASE("a data register on one side only takes every input") {
+    const EquivResult r = check_equivalence(wq("qubit a, z\na ^= z\n"), wq("qubit a\n"));
+    CHECK(r.verdict == Verdict::NotEquivalent);
+    // A declared ancilla on one side only is still a clean ancilla.
+    CHECK(check_equivalence(wq("qubit a, b\nancilla t\nt ^= a\nb ^= t\nt ^= a\n"), wq("qubit a, b\nb ^= a\n")).verdict ==
+          Verdict::Equivalent);
+}
+
+TEST_CASE("data registers unmatched on both sides are refused unless mapped") {
+    CHECK_THROWS_WITH_AS(check_equivalence(wq("qubit a, z\na ^= z\n"), wq("qubit a, q_z\na ^= q_z\n")),
+                         doctest::Contains("'z' only in the first program, 'q_z' only in the second"), UserError);
+    passes::EquivOptions opts;
+    opts.register_map = {{"z", "q_z"}};
+    CHECK(check_equivalence(wq("qubit a, z\na ^= z\n"), wq("qubit a, q_z\na ^= q_z\n"), opts).verdict ==
+          Verdict::Equivalent);
+    CHECK(check_equivalence(wq("qubit a, z\na ^= z\n"), wq("qubit a, q_z\nq_z ^= a\n"), opts).verdict ==
+          Verdict::NotEquivalent);
 }
