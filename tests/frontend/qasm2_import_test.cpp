@@ -454,16 +454,19 @@ TEST_CASE("a program's own cu, sx and rxx shadow the later headers' gates") {
     ir::Circuit ref = load(std::string(kHead) + inlined);
     // After the include, and before it (the include must not clash with the program's cu).
     ir::Circuit after = load(std::string(kHead) + defs + calls);
-    ir::Circuit before = load("OPENQASM 2.0;\n" + defs + "include \"qelib1.inc\";\n" + calls);
     CHECK(test::distance_up_to_phase(test::dense_unitary(after), test::dense_unitary(ref)) < 1e-9);
-    CHECK(test::distance_up_to_phase(test::dense_unitary(before), test::dense_unitary(ref)) < 1e-9);
+    // A definition before the include (from the builtins only) is kept too: the call is one CX.
+    ir::Circuit before = load("OPENQASM 2.0;\ngate cu(t) a,b { CX a,b; }\ninclude \"qelib1.inc\";\nqreg q[2];\ncu(0.5) q[0],q[1];\n");
+    REQUIRE(before.ops.size() == 1);
+    CHECK(before.ops[0].kind == OpKind::X);
+    CHECK(before.ops[0].controls.size() == 1);
     // The program's sx is S^dag H S^dag = e^{-i pi/4} SX, so the call is the definition, not a clash.
     CHECK(error_of(std::string(kHead) + "gate sx a { sdg a; h a; sdg a; }\nqreg q[1];\nsx q[0];\n") == "no error");
 }
 
 TEST_CASE("a gate of the 2.0 header itself cannot be redefined") {
     CHECK(error_of(std::string(kHead) + "gate cz a,b { h b; cx a,b; h b; }\n") == "3:6: gate 'cz' is already defined");
-    CHECK(error_of("OPENQASM 2.0;\ngate cu3(t,p,l) a,b { cx a,b; }\ninclude \"qelib1.inc\";\n") ==
+    CHECK(error_of("OPENQASM 2.0;\ngate cu3(t,p,l) a,b { CX a,b; }\ninclude \"qelib1.inc\";\n") ==
           "3:9: qelib1.inc defines 'cu3', which is already defined at 2:6");
     CHECK(error_of(std::string(kHead) + "gate cu(t) a,b { cx a,b; }\ngate cu(t) a,b { cx a,b; }\n") ==
           "4:6: gate 'cu' is already defined");
