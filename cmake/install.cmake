@@ -3,6 +3,9 @@ include(GNUInstallDirs)
 include(CMakePackageConfigHelpers)
 
 set_target_properties(whittle_lib PROPERTIES EXPORT_NAME whittle)
+# The headers need C++20 (ir/lit_vec.h and others): the requirement travels with the exported target,
+# so a consumer that sets no standard of its own still compiles them.
+target_compile_features(whittle_lib PUBLIC cxx_std_20)
 # The umbrella header is included as <whittle/whittle.h>; the module headers as "ir/circuit.h".
 target_include_directories(whittle_lib PUBLIC
   $<BUILD_INTERFACE:${PROJECT_SOURCE_DIR}/include>

@@ -39,6 +39,8 @@ std::string format_error(const UserError& e, const SourceManager& sm) {
     std::string out = fmt::format("{}:{}:{}: error: {}\n", file, uint32_t(loc.line), uint32_t(loc.column), e.what());
     if (loc.file < sm.size()) {
         std::string_view src = sm.line(loc.file, loc.line);
+        // Columns count from after a leading UTF-8 byte order mark (both readers skip it).
+        if (loc.line == 1 && src.substr(0, 3) == "\xEF\xBB\xBF") src.remove_prefix(3);
         if (!src.empty() && src.size() < 400) {
             std::string shown, caret;
             for (size_t i = 0; i < src.size(); ++i) {

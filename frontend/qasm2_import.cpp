@@ -198,7 +198,8 @@ private:
             if (qelib1_) return;
             for (const HeaderGate& g : qasm2::header_gates()) {
                 auto it = gates_.find(std::string_view(g.name));
-                if (!g.builtin && it != gates_.end())
+                // A program's own gate of a name the later headers added keeps its definition.
+                if (!g.builtin && qasm2::in_2017_header(g.id) && it != gates_.end())
                     throw UserError(fmt::format("qelib1.inc defines '{}', which is already defined at {}:{}", g.name,
                                                 uint32_t(it->second.loc.line), uint32_t(it->second.loc.column)),
                                     name.loc);
@@ -279,7 +280,10 @@ private:
         Token name = expect(lx, Tok::Ident, fmt::format("after '{}'", kw.text).c_str());
         if (name.text == "U" || name.text == "CX")
             throw UserError(fmt::format("'{}' is a builtin gate and cannot be redefined", name.text), name.loc);
-        if (gates_.find(name.text) != gates_.end() || (qelib1_ && qasm2::find_header_gate(name.text)))
+        // The 2.0 header (arXiv:1707.03429) has no cu, sx, rxx, ...: a program that defines one of the
+        // later headers' gates itself is valid 2.0, and its definition shadows the built-in gate.
+        const qasm2::HeaderGate* header = qasm2::find_header_gate(name.text);
+        if (gates_.find(name.text) != gates_.end() || (qelib1_ && header && qasm2::in_2017_header(header->id)))
             throw UserError(fmt::format("gate '{}' is already defined", name.text), name.loc);
         GateDef def;
         def.name = std::string(name.text);

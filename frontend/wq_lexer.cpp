@@ -82,7 +82,11 @@ const char* tok_name(Tok t) {
 }
 
 Lexer::Lexer(std::string_view text)
-    : begin_(text.data()), pos_(text.data()), end_(text.data() + text.size()), line_start_(text.data()) {}
+    : begin_(text.data()), pos_(text.data()), end_(text.data() + text.size()), line_start_(text.data()) {
+    // A UTF-8 byte order mark (editors on some systems write one) is not part of the program; the
+    // first line's columns count from after it.
+    if (text.substr(0, 3) == "\xEF\xBB\xBF") pos_ = line_start_ = text.data() + 3;
+}
 
 void Lexer::skip_blanks(bool skip_newlines) {
     while (pos_ != end_) {

@@ -31,7 +31,13 @@ std::string wire_text(const Circuit& c, uint32_t wire) {
     return r.scalar ? name_text(r.name) : fmt::format("{}[{}]", name_text(r.name), q.index);
 }
 
-std::string lit_text(const Circuit& c, Lit l) { return (l.positive() ? "" : "!") + wire_text(c, l.wire()); }
+// Appended rather than `"!" + name`: GCC 12 at -O2/-O3 warns (-Wrestrict, a false positive) on the
+// inlined insert-at-front of that operator+, which breaks the Release build under -Werror.
+std::string lit_text(const Circuit& c, Lit l) {
+    std::string s(l.positive() ? "" : "!");
+    s += wire_text(c, l.wire());
+    return s;
+}
 
 std::string product_text(const Circuit& c, const LitVec& lits, const char* op) {
     std::string s;

@@ -209,7 +209,10 @@ private:
             if (e > 0 && named[e]) return gate(named[e], {}, ws);
             return gate(v2 ? "u1" : "p", {text(theta)}, ws);
         }
-        if (ws.size() == 2) return gate(v2 ? "cu1" : "cp", {text(theta)}, ws);
+        if (ws.size() == 2) {
+            if (theta == Angle::pi_times(1)) return gate("cz", {}, ws);  // both headers have cz
+            return gate(v2 ? "cu1" : "cp", {text(theta)}, ws);
+        }
         if (!v2) return ctrl_gate("p", {text(theta)}, {ws.begin(), ws.end() - 1}, {ws.back()});
         if (ws.size() > 3) refuse(fmt::format("a phase on a product of {} wires", ws.size()));
         const uint32_t a = ws[0], b = ws[1], t = ws[2];

@@ -257,6 +257,13 @@ GridEnumerator::GridEnumerator(const Ellipse& a, const Ellipse& b) : op_(reduce_
     half_widths(b_, b_half_);
 }
 
+double GridEnumerator::work(int k) const {
+    const Real scale2 = boost::multiprecision::pow(Real(2), k);  // (sqrt2^k)^2: both widths scale by sqrt2^k
+    Real w = 0;
+    for (int axis = 0; axis < 2; ++axis) w += 2 * (4 * a_half_[axis] * b_half_[axis] * scale2 + 1);
+    return w.convert_to<double>();
+}
+
 std::vector<ZOmega> GridEnumerator::solutions(int k) const {
     // Level k: v = G^-1 u with v in sqrt2^k a_ and v.bullet() in (-sqrt2)^k b_.
     const Real scale = boost::multiprecision::pow(sqrt2_real(), k);

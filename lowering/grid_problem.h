@@ -54,6 +54,11 @@ class GridEnumerator {
 public:
     GridEnumerator(const Ellipse& a, const Ellipse& b);
     std::vector<ZOmega> solutions(int k) const;
+    /// The size of the one-dimensional problems solutions(k) solves (interval width products summed
+    /// over both axes and cosets): its time and memory grow with this. An ellipse pair that is
+    /// upright but badly balanced (an epsilon-region whose direction lies within a few epsilon of a
+    /// multiple of pi/4) makes one axis huge while the other has no solution yet.
+    double work(int k) const;
     const GridOperator& grid_operator() const { return op_; }
 
 private:

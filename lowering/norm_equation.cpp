@@ -32,14 +32,8 @@ std::optional<ZOmega> split_in_zomega(const ZSqrt2& pi, const BigInt& p) {
     bool minus_one = p % 4 == 1;
     auto u = sqrt_mod_prime(minus_one ? BigInt(-1) : BigInt(-2), p);
     if (!u) return std::nullopt;
-    ZOmega other(*u, 0, 0, 0);  // u + i, or u + sqrt2 i with sqrt2 i = omega + omega^3
-    if (minus_one) {
-        other.c[2] = 1;
-    } else {
-        other.c[1] = 1;
-        other.c[3] = 1;
-    }
-    auto g = gcd(ZOmega::from_zsqrt2(pi), other);
+    // u + i, or u + sqrt2 i with sqrt2 i = omega + omega^3
+    auto g = gcd(ZOmega::from_zsqrt2(pi), minus_one ? ZOmega(*u, 0, 1, 0) : ZOmega(*u, 1, 0, 1));
     if (!g) return std::nullopt;
     // conj(g) g must be pi times a unit: the same integer norm up to sign.
     if (abs(g->norm_sqrt2().norm()) != abs(pi.norm())) return std::nullopt;

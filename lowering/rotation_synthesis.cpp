@@ -12,6 +12,8 @@
 #include <numbers>
 #include <string>
 
+#include <fmt/format.h>
+
 #include "ir/error.h"
 #include "lowering/grid_problem.h"
 #include "lowering/norm_equation.h"
@@ -83,7 +85,55 @@ std::optional<int> exact_eighths(double theta) {
     return static_cast<int>(std::fmod(std::fmod(k, 8.0) + 8.0, 8.0));
 }
 
+namespace {
+
+/// Most one-dimensional grid points one level may enumerate (a few MiB and well under a second);
+/// generic angles need a few hundred at the level where their solutions appear.
+constexpr double kMaxGridWork = double(1 << 20);
+
+/// Thrown (and caught below) when the grid problem of an angle is too unbalanced to enumerate.
+struct GridTooUnbalanced {};
+
+RzApproximation synthesize_direct(double theta, double epsilon, long rho_steps_per_candidate);
+
+/// Rz(theta) = Rz(theta - c) Rz(c) with both halves synthesized within epsilon/2 (operator norms add
+/// under products of unitaries), for a c such that neither half lies near a multiple of pi/4. For
+/// angles whose own grid problem is too unbalanced; costs about twice the T gates.
+RzApproximation synthesize_split(double theta, double epsilon, long rho_steps_per_candidate) {
+    const double quarter = std::numbers::pi / 4;
+    auto distance = [&](double a) { return std::abs(a - quarter * std::round(a / quarter)); };
+    for (double c : {1.0, 0.7, 1.3, 0.45}) {  // generic angles, far from multiples of pi/4
+        if (distance(theta - c) < 1e-3) continue;
+        try {
+            RzApproximation a = synthesize_direct(theta - c, epsilon / 2, rho_steps_per_candidate);
+            RzApproximation b = synthesize_direct(c, epsilon / 2, rho_steps_per_candidate);
+            RzApproximation r;
+            r.gates = std::move(a.gates);
+            r.gates.insert(r.gates.end(), b.gates.begin(), b.gates.end());
+            r.t_count = a.t_count + b.t_count;
+            r.global_phase_eighths = (a.global_phase_eighths + b.global_phase_eighths) % 8;
+            r.error_bound = std::min(a.error_bound + b.error_bound, epsilon);
+            return r;
+        } catch (const GridTooUnbalanced&) {
+            continue;
+        }
+    }
+    throw UserError(fmt::format("cannot approximate rz({}) within {} in Clifford+T with bounded work", theta, epsilon));
+}
+
+}  // namespace
+
 RzApproximation synthesize_rz(double theta, double epsilon, long rho_steps_per_candidate) {
+    try {
+        return synthesize_direct(theta, epsilon, rho_steps_per_candidate);
+    } catch (const GridTooUnbalanced&) {
+        return synthesize_split(theta, epsilon, rho_steps_per_candidate);
+    }
+}
+
+namespace {
+
+RzApproximation synthesize_direct(double theta, double epsilon, long rho_steps_per_candidate) {
     if (!(epsilon > 0 && epsilon < 1))
         throw UserError("rotation epsilon must lie strictly between 0 and 1, got " + std::to_string(epsilon));
     if (!std::isfinite(theta)) throw UserError("rotation angle must be a finite number");
@@ -98,7 +148,13 @@ RzApproximation synthesize_rz(double theta, double epsilon, long rho_steps_per_c
     // ||Rz(a) - e^{i phi} Rz(b)|| is at least 2 |sin((a - b)/4)|, reached at phi = 0.
     Real kq = boost::multiprecision::round(th / (pi / 4));
     Real nearest_error = 2 * abs(sin((th - kq * pi / 4) / 4));
-    if (exact_eighths(theta) || nearest_error <= eps) {
+    // exact_eighths alone would also take a distinct angle a few 1e-15 from a multiple (3e-15 is not
+    // 0 to within rounding): only a double within a few ulps of the multiple counts as rounding.
+    const double k_double = std::round(theta / (std::numbers::pi / 4));
+    const bool rounded_multiple =
+        exact_eighths(theta) &&
+        std::abs(theta - k_double * (std::numbers::pi / 4)) <= 4 * (std::nextafter(std::max(std::abs(theta), 1.0), INFINITY) - std::max(std::abs(theta), 1.0));
+    if (rounded_multiple || nearest_error <= eps) {
         RzApproximation r;
         r.gates = exact_rz(kq.convert_to<int>());
         r.t_count = t_count(r.gates);
@@ -112,6 +168,10 @@ RzApproximation synthesize_rz(double theta, double epsilon, long rho_steps_per_c
     const Real r2 = sqrt(Real(2));
     const int max_k = static_cast<int>(4 * std::log2(1 / epsilon)) + 60;
     for (int k = 0; k <= max_k; ++k) {
+        // An epsilon-region pointing within a few epsilon of a multiple of pi/4 gives an upright but
+        // unbalanced pair: one axis has no point until a level where the other has ~1/epsilon of
+        // them. Such an angle is split instead (the work of a level would otherwise double per k).
+        if (grid.work(k) > kMaxGridWork) throw GridTooUnbalanced{};
         const ZSqrt2 two_k(BigInt(1) << k);
         const Real scale = boost::multiprecision::pow(r2, k);
         std::vector<Candidate> cands;
@@ -160,6 +220,8 @@ RzApproximation synthesize_rz(double theta, double epsilon, long rho_steps_per_c
     WHITTLE_ASSERT(false && "the grid problem has solutions at every large enough level");
     return {};
 }
+
+}  // namespace
 
 RzApproximation approximate_rz(double theta, double epsilon) {
     using Key = std::pair<uint64_t, uint64_t>;

@@ -88,7 +88,10 @@ std::string describe_op(const ir::Circuit& c, const Op& op, bool with_location) 
         where = fmt::format(" ({}:{}:{})", file, uint32_t(op.loc.line), uint32_t(op.loc.column));
     }
     std::string wires;
-    for (uint32_t w : op.wires()) wires += (wires.empty() ? "" : ",") + c.wire_name(w);
+    for (uint32_t w : op.wires()) {  // appended: `"," + name` drew GCC 12's -Wrestrict false positive at -O3
+        if (!wires.empty()) wires += ',';
+        wires += c.wire_name(w);
+    }
     return fmt::format("'{}' on {}{}", ir::gate_name(op), wires, where);
 }
 

@@ -11,6 +11,7 @@
 #include <thread>
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include "frontend/cli/commands.h"
 #include "frontend/cli/driver.h"
@@ -21,7 +22,9 @@
 #include "ir/resources.h"
 #include "lowering/emit_qasm.h"
 #include "lowering/report.h"
+#include "lowering/targets.h"
 #include "passes/pipeline.h"
+#include "passes/registry.h"
 
 namespace whittle::cli {
 namespace {
@@ -31,6 +34,7 @@ struct CompileArgs {
     std::string output;
     unsigned jobs = 1;
     std::string target;
+    bool target_given = false;  // --target was on the command line (even as '')
     int level = 2;
     std::string optimize_for = "t";
     bool allow_measurement = false;
@@ -78,6 +82,71 @@ passes::Metric parse_metric(const std::string& s) {
 /// reported as not checked (the copy and the check would cost more than the compile's budget).
 constexpr size_t kFinalCheckMaxOps = size_t(1) << 18;
 
+/// The --epsilon range: the rotation synthesis is bounded in time and memory over all of it
+/// (README "Rotations"; tests/cli/compile_options_test.cpp measures both ends).
+constexpr double kMinEpsilon = 1e-15;
+
+bool ends_with(const std::string& s, const char* ext) {
+    const std::string e(ext);
+    return s.size() >= e.size() && s.compare(s.size() - e.size(), e.size(), e) == 0;
+}
+
+/// Refuses, before any input is read, option values that would be ignored or would make the output
+/// or the report say something that is not so.
+void check_options(const CompileArgs& a) {
+    namespace fs = std::filesystem;
+    std::string known_targets;
+    for (lowering::Target t : lowering::all_targets())
+        known_targets += (known_targets.empty() ? "" : ", ") + std::string(lowering::target_name(t));
+    if (a.target_given && a.target.empty())
+        throw UserError(fmt::format("--target needs a gate set (known targets: {})", known_targets));
+    if (!a.target.empty()) {
+        bool known = false;
+        for (lowering::Target t : lowering::all_targets()) known = known || a.target == lowering::target_name(t);
+        if (!known) throw UserError(fmt::format("--target '{}' is not a known target (known targets: {})", a.target, known_targets));
+    }
+    if (!(a.epsilon >= kMinEpsilon && a.epsilon < 1))
+        throw UserError(fmt::format("--epsilon must lie in [1e-15, 1), got {}", a.epsilon));
+    if (!a.emit.empty() && a.emit != "wq" && a.emit != "qasm2" && a.emit != "qasm3")
+        throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", a.emit));
+    parse_metric(a.optimize_for);
+
+    passes::PassOptions po;
+    po.target = a.target;
+    po.level = a.level;
+    const std::vector<std::string> names = a.passes.empty() ? passes::pipeline_for(po) : passes::parse_pass_list(a.passes);
+    if (!a.passes.empty() && !a.target.empty() && std::find(names.begin(), names.end(), "to-target") == names.end())
+        throw UserError(fmt::format("--passes runs only the passes listed, and '{}' has no to-target: the output would not be "
+                                    "in --target '{}'; list the lowering passes too (-O{} uses: {}) or leave out --passes",
+                                    a.passes, a.target, a.level, fmt::join(passes::pipeline_for(po), ",")));
+    for (const std::string& d : a.dump_after) {
+        if (d == "all") continue;
+        if (!passes::find_pass(d)) throw UserError(fmt::format("--dump-after '{}' is not a pass (see --passes for the names)", d));
+        if (std::find(names.begin(), names.end(), d) == names.end())
+            throw UserError(fmt::format("--dump-after '{}': that pass does not run here (the passes are: {})", d, fmt::join(names, ",")));
+    }
+
+    // One input: the output's format comes from its extension unless --emit names it.
+    std::error_code ec;
+    const bool to_stdout = a.output.empty() || a.output == "-";
+    if (a.inputs.size() == 1 && !to_stdout && a.emit.empty() && !ends_with(a.output, ".wq") && !ends_with(a.output, ".qasm") &&
+        !ends_with(a.output, ".qasm3")) {
+        const fs::file_status st = fs::status(a.output, ec);
+        const bool special = !ec && fs::exists(st) && !fs::is_regular_file(st);  // a folder (batch), /dev/null, a pipe
+        if (!special)
+            throw UserError(fmt::format("-o '{}': the extension names no output format (.wq, .qasm or .qasm3); add --emit wq, "
+                                        "qasm2 or qasm3 to write this name",
+                                        a.output));
+    }
+    if (!a.report.empty()) {
+        const bool report_stdout = a.report == "-";
+        if ((report_stdout && to_stdout) ||
+            (!report_stdout && !to_stdout && fs::weakly_canonical(a.report, ec) == fs::weakly_canonical(a.output, ec)))
+            throw UserError(fmt::format("--report '{}' and the output are the same file; give the report a name of its own",
+                                        report_stdout ? std::string("-") : a.report));
+    }
+}
+
 /// Compiles one input; diagnostics and --stats / --dump-after text go to `err`.
 int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::ostream& err) {
     frontend::SourceManager sm;
@@ -120,6 +189,16 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
             return kCheckFailed;
         }
         progress.finish();
+        if (!a.passes.empty() && !po.target.empty()) {
+            // A hand-written list may end with a pass that leaves the target (the report would claim it).
+            const lowering::Target t = lowering::parse_target(po.target);
+            for (const ir::Op& op : c.ops)
+                if (!lowering::in_target(op, t))
+                    throw UserError(fmt::format("--passes '{}' leaves {} outside --target '{}'; end the list with "
+                                                "to-target (and its cleanup passes)",
+                                                a.passes, ir::op_kind_name(op.kind), po.target),
+                                    op.loc);
+        }
         const double compile_seconds =
             std::chrono::duration<double>(std::chrono::steady_clock::now() - compile_start).count();
         std::string verdict = a.no_check ? "not checked (--no-check)"
@@ -232,6 +311,14 @@ int run_batch(const CompileArgs& a, const std::vector<Job>& jobs) {
 }
 
 int run_compile(const CompileArgs& a) {
+    {
+        frontend::SourceManager none;
+        int rc = guarded(none, [&]() -> int {
+            check_options(a);
+            return kOk;
+        });
+        if (rc != kOk) return rc;
+    }
     std::error_code ec;
     const bool one = a.inputs.size() == 1 && !std::filesystem::is_directory(a.output, ec);
     if (one) return compile_one(a, Job{a.inputs[0], a.output, ""}, !a.quiet, std::cerr);
@@ -259,7 +346,7 @@ void add_compile_command(CLI::App& app, int& exit_code) {
                     "input's stem and the --emit extension (.wq by default)");
     cmd->add_option("-j,--jobs", args->jobs, "compile up to N inputs at once (threads; default 1)")
         ->check(CLI::Range(1u, 1024u));
-    cmd->add_option("--target", args->target,
+    CLI::Option* target = cmd->add_option("--target", args->target,
                     "native gate set: clifford+t, cx+rz+sx, cz+rx+rz, iswap+rz+rx, xx+r, u+cx, nct (default: stay high level)");
     // One short option with an attached value: CLI11 reads -O0 .. -O3 as -O with 0 .. 3.
     cmd->add_option("-O", args->level, "optimization level: -O0 none, -O1 cheap local, -O2 the default pipeline, -O3 everything")
@@ -278,10 +365,13 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_flag("--time-passes", args->time_passes, "print each pass's time to stderr");
     cmd->add_flag("--stats", args->stats, "print each pass's changes to stderr");
     cmd->add_option("--extra-ancillas", args->extra_ancillas, "fresh clean wires the lowering may add (default 0)");
-    cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t)")->capture_default_str();
+    cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
     cmd->add_flag("-q,--quiet", args->quiet, "no progress indicator");
     cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");
-    cmd->callback([args, &exit_code]() { exit_code = run_compile(*args); });
+    cmd->callback([args, target, &exit_code]() {
+        args->target_given = target->count() > 0;
+        exit_code = run_compile(*args);
+    });
 }
 
 }  // namespace whittle::cli

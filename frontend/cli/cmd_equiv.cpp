@@ -1,4 +1,5 @@
 // `whittle equiv A B`: exit 0 equivalent, 1 not equivalent, 2 error or inconclusive.
+#include <cmath>
 #include <iostream>
 #include <memory>
 #include <optional>
@@ -112,8 +113,21 @@ void add_equiv_command(CLI::App& app, int& exit_code) {
     auto args = std::make_shared<EquivArgs>();
     CLI::App* cmd = app.add_subcommand("equiv", "check that two programs are equivalent (up to global phase)");
     cmd->add_option("programs", args->files, "the two programs (.wq or .qasm)")->required()->expected(2);
-    cmd->add_option("--time-budget", args->time_budget, "seconds each check may take before it gives up")
-        ->capture_default_str();
+    cmd->add_option("--time-budget", args->time_budget, "seconds each check may take before it gives up (> 0)")
+        ->capture_default_str()
+        ->check(CLI::Validator(
+            [](std::string& v) -> std::string {
+                // A budget of zero, a negative one or nan would skip every engine and say nothing decided.
+                double d = 0;
+                try {
+                    d = std::stod(v);
+                } catch (const std::exception&) {
+                    return "--time-budget takes a number of seconds, not '" + v + "'";
+                }
+                if (!(d > 0) || !std::isfinite(d)) return "--time-budget must be a positive number of seconds, got " + v;
+                return {};
+            },
+            "SECONDS > 0"));
     cmd->add_flag("--exact-only", args->exact_only, "treat sampled and random-state answers as inconclusive");
     cmd->add_option("--seed", args->seed, "seed for random inputs and states")->capture_default_str();
     cmd->add_option("--states", args->states, "random input states for the simulation fallback")->capture_default_str();

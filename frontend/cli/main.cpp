@@ -1,4 +1,7 @@
 // whittle's command line: compile, count, equiv, draw, demo.
+#include <cstdio>
+#include <iostream>
+
 #include <CLI/CLI.hpp>
 
 #include "frontend/cli/commands.h"
@@ -21,6 +24,13 @@ int main(int argc, char** argv) {
     } catch (const CLI::ParseError& e) {
         int rc = app.exit(e);
         return rc == 0 ? 0 : whittle::cli::kInputError;
+    }
+    // Whatever a subcommand printed must have arrived: a failed write to stdout (a full disk,
+    // /dev/full) is an error even when the subcommand itself succeeded.
+    std::cout.flush();
+    if (!std::cout || std::fflush(stdout) != 0) {
+        if (exit_code == whittle::cli::kOk) std::cerr << "error: cannot write to standard output\n";
+        return exit_code == whittle::cli::kOk ? whittle::cli::kInputError : exit_code;
     }
     return exit_code;
 }

@@ -68,6 +68,9 @@ Value half(const Value& v) { return v / Value::rational(2); }
 
 const std::vector<HeaderGate>& header_gates() { return kGates; }
 
+// GateId lists the 2017 header's gates first (as the table does), cu3 last among them.
+bool in_2017_header(GateId id) { return id <= GateId::cu3; }
+
 const HeaderGate* find_header_gate(std::string_view name) {
     for (const HeaderGate& g : kGates)
         if (name == g.name) return &g;

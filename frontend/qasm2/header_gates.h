@@ -27,6 +27,11 @@ struct HeaderGate {
 /// The header gate or builtin with this name, or nullptr.
 const HeaderGate* find_header_gate(std::string_view name);
 
+/// True for U, CX and the gates of arXiv:1707.03429's qelib1.inc; false for the later additions
+/// (u0, u, p, sx, sxdg, cp, crx, cry, csx, cu, rxx, rzz, c3x, c4x), which a 2.0 program may define
+/// itself: its definition then shadows the built-in one.
+bool in_2017_header(GateId id);
+
 /// Every gate of the table (for checks that a user definition does not clash with the header).
 const std::vector<HeaderGate>& header_gates();
 

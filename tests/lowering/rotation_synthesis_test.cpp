@@ -2,6 +2,7 @@
 #include <doctest/doctest.h>
 
 #include <boost/multiprecision/cpp_bin_float.hpp>
+#include <chrono>
 #include <cmath>
 #include <numbers>
 #include <random>
@@ -247,4 +248,39 @@ TEST_CASE("bad epsilon is a user error") {
     CHECK_THROWS_AS(approximate_rz(0.3, 1.5), whittle::UserError);
     CHECK_THROWS_AS(approximate_rz(0.3, std::nan("")), whittle::UserError);
     CHECK_THROWS_AS(approximate_rz(INFINITY, 1e-3), whittle::UserError);
+}
+
+// An epsilon-region pointing within a few epsilon of a multiple of pi/4 gives a grid problem whose
+// enumeration grew twofold per level without ever finding a point (minutes, then out of memory).
+// Such angles are split in two generic rotations; the check is the distance, re-multiplied in
+// 50-digit arithmetic, and a time bound far above what a generic angle takes (tens of ms).
+TEST_CASE("angles within a few epsilon of a multiple of pi/4 are synthesized with bounded work") {
+    std::vector<double> thetas;
+    for (double eps : {1e-3, 1e-10, 1e-15})
+        for (int k : {0, 3, -2})
+            for (double m : {3.0, 15.0, 1000.0}) thetas.push_back(k * std::numbers::pi / 4 + m * eps), thetas.push_back(eps);
+    for (size_t i = 0; i < thetas.size(); i += 2) {
+        const double theta = thetas[i], eps = thetas[i + 1];
+        INFO("theta = " << theta << ", eps = " << eps);
+        auto t0 = std::chrono::steady_clock::now();
+        RzApproximation r = synthesize_rz(theta, eps);
+        CHECK(std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count() < 20);
+        Distances d = distance_to_rz(r, theta);
+        CHECK(d.up_to_phase <= F(eps));
+        CHECK(r.error_bound <= eps);
+        CHECK(d.up_to_phase <= F(r.error_bound) * (1 + F(1e-9)));
+        // Approximated (not within epsilon of the multiple): the bound holds without a phase.
+        if (2 * std::abs(std::sin((theta - std::round(theta / (std::numbers::pi / 4)) * std::numbers::pi / 4) / 4)) > eps)
+            CHECK(d.plain <= F(r.error_bound) * (1 + F(1e-9)));
+        CHECK(r.t_count == t_count(r.gates));
+    }
+    // The angles the issue names: rz(1.5e-9), rz(pi/4 + 1.5e-9), rz(pi/2^31), and what rotation
+    // merging leaves of rz(0.3); rz(-0.2999999985), at the default epsilon.
+    for (double theta : {1.5e-9, std::numbers::pi / 4 + 1.5e-9, std::ldexp(std::numbers::pi, -31), 0.3 - 0.2999999985}) {
+        INFO("theta = " << theta);
+        auto t0 = std::chrono::steady_clock::now();
+        RzApproximation r = approximate_rz(theta, 1e-10);
+        CHECK(std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count() < 20);
+        CHECK(distance_to_rz(r, theta).plain <= F(1e-10));
+    }
 }
