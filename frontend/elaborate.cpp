@@ -191,6 +191,7 @@ void Elaborator::exec_decl(const File& f, const Stmt& s) {
         Binding b;
         b.kind = Binding::Register;
         b.first = c_.add_register(reg_name, uint32_t(size), s.role, scalar);
+        c_.registers.back().loc = eloc;
         b.size = uint32_t(size);
         b.scalar = scalar;
         bind(e.sym, b, eloc);

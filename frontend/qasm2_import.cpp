@@ -250,6 +250,7 @@ private:
             if (size + c_.num_qubits() > limit)
                 throw UserError(fmt::format("the program declares more than {} qubits", limit), size_tok.loc);
             c_.add_register(std::string(name.text), uint32_t(size), ir::Role::Data);
+            c_.registers.back().loc = name.loc;
         } else {
             if (size + c_.num_cbits > limit)
                 throw UserError(fmt::format("the program declares more than {} classical bits", limit), size_tok.loc);

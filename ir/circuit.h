@@ -28,6 +28,7 @@ struct Register {
     uint32_t size = 0;
     Role role = Role::Data;
     bool scalar = false;
+    SourceLoc loc;  ///< the declaration, when the register came from a source file
 };
 
 struct Qubit {

@@ -247,4 +247,16 @@ std::string format_contract_input(const ir::Circuit& c, const std::vector<uint8_
     return s.empty() ? "the only input" : s;
 }
 
+UserError contract_violation(const ir::Circuit& c, const AncillaContract& r) {
+    const std::string msg =
+        fmt::format("ancilla '{}' is not returned to |0> (input {} leaves it {}; {})", c.wire_name(r.wire),
+                    format_contract_input(c, r.input), r.at_one ? "at 1" : "in a superposition", r.method);
+    ir::SourceLoc loc = c.registers[c.qubits[r.wire].reg].loc;
+    if (!loc.known())
+        for (const ir::Op& op : c.ops)
+            for (uint32_t w : op.wires())
+                if (w == r.wire) loc = op.loc;
+    return UserError(msg, loc);
+}
+
 }  // namespace whittle::passes

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "ir/circuit.h"
+#include "ir/error.h"
 
 namespace whittle::passes {
 
@@ -24,6 +25,10 @@ struct AncillaContract {
 /// violation); other unitary circuits of up to 20 wires numerically by state vectors. Circuits with
 /// measurements are Undecided. Stops after about `seconds`.
 AncillaContract check_ancilla_contract(const ir::Circuit& c, double seconds);
+
+/// The located error for a Violated result: at the register's declaration when it has one, else at
+/// the last op on the wire (where it is left). The message names the wire, the input and `method`.
+UserError contract_violation(const ir::Circuit& c, const AncillaContract& r);
 
 /// "a=3 b=1": a basis input by the circuit's non-clean registers, for messages.
 std::string format_contract_input(const ir::Circuit& c, const std::vector<uint8_t>& bits);

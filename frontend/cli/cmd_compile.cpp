@@ -23,6 +23,7 @@
 #include "lowering/emit_qasm.h"
 #include "lowering/report.h"
 #include "lowering/targets.h"
+#include "passes/ancilla_contract.h"
 #include "passes/pipeline.h"
 #include "passes/registry.h"
 
@@ -81,6 +82,8 @@ passes::Metric parse_metric(const std::string& s) {
 /// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are
 /// reported as not checked (the copy and the check would cost more than the compile's budget).
 constexpr size_t kFinalCheckMaxOps = size_t(1) << 18;
+/// The time the input's ancilla contract check may take.
+constexpr double kContractSeconds = 1.0;
 
 /// The --epsilon range: the rotation synthesis is bounded in time and memory over all of it
 /// (README "Rotations"; tests/cli/compile_options_test.cpp measures both ends).
@@ -175,6 +178,16 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
         // The input as read, kept for the report's "input_resources" only when a report is asked for.
         ir::Circuit source;
         const bool final_check = !a.no_check && c.ops.size() <= kFinalCheckMaxOps;
+        // The lowering takes a declared ancilla for a clean work wire wherever the program does not
+        // use it, so a program that leaves one dirty would compile into a wrong circuit: refuse it.
+        std::string contract_note;
+        if (final_check && std::any_of(c.qubits.begin(), c.qubits.end(),
+                                       [](const ir::Qubit& q) { return q.role == ir::Role::Clean; })) {
+            const passes::AncillaContract contract = passes::check_ancilla_contract(c, kContractSeconds);
+            if (contract.status == passes::AncillaContract::Status::Violated) throw passes::contract_violation(c, contract);
+            if (contract.status == passes::AncillaContract::Status::Undecided)
+                contract_note = fmt::format(" (ancillas not proven returned to |0>: {})", contract.method);
+        }
         if (!a.report.empty() || final_check) source = c;
         const auto compile_start = std::chrono::steady_clock::now();
         if (a.verify) hooks.verify = PassVerifier(verify_folder_for(job.output), passes::EquivOptions{}, job.verify_tag);
@@ -209,7 +222,7 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
                 err << check.failure;
                 return kCheckFailed;
             }
-            verdict = check.summary;
+            verdict = check.summary + contract_note;
         }
         if (a.stats || a.time_passes) {
             for (const passes::PassRecord& r : records) {

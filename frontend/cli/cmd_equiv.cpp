@@ -39,16 +39,10 @@ ContractFinding check_contract(const ir::Circuit& c, const std::string& file, co
     if (r.status == passes::AncillaContract::Status::Undecided)
         return {std::nullopt, fmt::format("  ancillas:       not decided for the {} program ({})\n", side, r.method)};
     if (r.status == passes::AncillaContract::Status::Ok) return {};
-    ir::SourceLoc loc;  // the last op on the wire: where it is left
-    for (const ir::Op& op : c.ops)
-        for (uint32_t w : op.wires())
-            if (w == r.wire) loc = op.loc;
-    const std::string msg =
-        fmt::format("ancilla '{}' is not returned to |0> (input {} leaves it {}; {})", c.wire_name(r.wire),
-                    passes::format_contract_input(c, r.input), r.at_one ? "at 1" : "in a superposition", r.method);
-    const std::string note = fmt::format("  ancillas:       the {} program ('{}'): {}\n", side, file, msg);
-    if (loc.known()) return {UserError(msg, loc), note};
-    return {UserError(fmt::format("{} (the {} program, '{}')", msg, side, file)), note};
+    const UserError e = passes::contract_violation(c, r);
+    const std::string note = fmt::format("  ancillas:       the {} program ('{}'): {}\n", side, file, e.what());
+    if (e.loc().known()) return {e, note};
+    return {UserError(fmt::format("{} (the {} program, '{}')", e.what(), side, file)), note};
 }
 
 int run_equiv(const EquivArgs& args) {

@@ -43,6 +43,20 @@ with tempfile.TemporaryDirectory() as tmp:
     p = run("equiv", "c1.wq", "c2.wq", cwd=d)
     check(p.returncode == 0, f"clean ancilla: exit {p.returncode}: {p.stdout} {p.stderr}")
 
+    # `compile` refuses a program that leaves a declared ancilla dirty, at the declaration (the issue's
+    # case: w ^= a[0] never undone, then a 4-control X whose lowering would take w as clean), for
+    # every target, with no output file.
+    (d / "dirty.wq").write_text("qubit a[4], t\nancilla w\nw ^= a[0]\nt ^= a[0] & a[1] & a[2] & a[3]\n")
+    for target in ["nct", "clifford+t", "cx+rz+sx"]:
+        for level in ["-O0", "-O2"]:
+            p = run("compile", "dirty.wq", "--target", target, level, "-o", "dirty-out.wq", cwd=d)
+            check(p.returncode == 2 and "dirty.wq:2:9: error: ancilla 'w' is not returned to |0>" in p.stderr
+                  and not (d / "dirty-out.wq").exists(), f"compile dirty ancilla {target} {level}: exit {p.returncode}: {p.stderr}")
+    # The same program with w restored compiles, and its summary line carries the check's verdict.
+    (d / "restored.wq").write_text("qubit a[4], t\nancilla w\nw ^= a[0]\nt ^= a[0] & a[1] & a[2] & a[3]\nw ^= a[0]\n")
+    p = run("compile", "restored.wq", "--target", "nct", "-o", "restored-out.wq", cwd=d)
+    check(p.returncode == 0 and "verified exact" in p.stderr, f"compile restored ancilla: exit {p.returncode}: {p.stderr}")
+
     # (3) A register named like a gate. The adder's sum lands in z (the stdlib's add, b += a).
     (d / "zadd.wq").write_text('use "arith"\nqubit a[3], z[3]\nadd(a, z)\n')
     p = run("compile", "zadd.wq", "--target", "clifford+t", "--emit", "qasm2", "-o", "zadd.qasm", cwd=d)
