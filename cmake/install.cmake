@@ -3,21 +3,19 @@ include(GNUInstallDirs)
 include(CMakePackageConfigHelpers)
 
 set_target_properties(whittle_lib PROPERTIES EXPORT_NAME whittle)
-# The headers need C++20 (ir/lit_vec.h and others): the requirement travels with the exported target,
-# so a consumer that sets no standard of its own still compiles them.
-target_compile_features(whittle_lib PUBLIC cxx_std_20)
 # The umbrella header is included as <whittle/whittle.h>; the module headers as "ir/circuit.h".
-target_include_directories(whittle_lib PUBLIC
+target_include_directories(whittle_lib INTERFACE
   $<BUILD_INTERFACE:${PROJECT_SOURCE_DIR}/include>
   $<INSTALL_INTERFACE:${CMAKE_INSTALL_INCLUDEDIR}>)
 
-install(TARGETS whittle_lib EXPORT whittleTargets
+# One archive per library folder (libwhittle_ir.a, ...); whittle::whittle links them all.
+install(TARGETS whittle_lib ${WHITTLE_LIBRARY_MODULES} EXPORT whittleTargets
   ARCHIVE DESTINATION ${CMAKE_INSTALL_LIBDIR}
   LIBRARY DESTINATION ${CMAKE_INSTALL_LIBDIR})
 install(TARGETS whittle RUNTIME DESTINATION ${CMAKE_INSTALL_BINDIR})
-foreach(dir ir frontend passes lowering)
+foreach(dir ir frontend synthesis verify lowering passes output)
   install(DIRECTORY ${PROJECT_SOURCE_DIR}/${dir}/ DESTINATION ${CMAKE_INSTALL_INCLUDEDIR}/whittle/${dir}
-    FILES_MATCHING PATTERN "*.h" PATTERN "cli" EXCLUDE PATTERN "stdlib" EXCLUDE)
+    FILES_MATCHING PATTERN "*.h" PATTERN "stdlib" EXCLUDE)
 endforeach()
 install(FILES ${PROJECT_SOURCE_DIR}/include/whittle/whittle.h DESTINATION ${CMAKE_INSTALL_INCLUDEDIR}/whittle)
 file(GLOB WHITTLE_STDLIB_FILES CONFIGURE_DEPENDS ${PROJECT_SOURCE_DIR}/frontend/stdlib/*.wq)

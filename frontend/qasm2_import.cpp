@@ -13,7 +13,7 @@
 #include "frontend/qasm2/expr.h"
 #include "frontend/qasm2/header_gates.h"
 #include "frontend/qasm2/lexer.h"
-#include "lowering/qasm_names.h"
+#include "ir/qasm_annotation.h"
 
 namespace whittle::frontend {
 namespace {
@@ -125,11 +125,11 @@ private:
         while (lx.peek().kind != Tok::End) statement(lx, file_id);
     }
 
-    /// `// whittle: qreg WRITTEN source NAME role ROLE` lines (lowering/qasm_names.h) in the main file:
+    /// `// whittle: qreg WRITTEN source NAME role ROLE` lines (output/qasm_names.h) in the main file:
     /// the register written as WRITTEN is the source's NAME, a `qubit`, `ancilla` or `borrow`.
     void apply_annotations(uint32_t file_id) {
         const std::string& text = sm_.text(file_id);
-        const std::string_view marker = lowering::kQasmAnnotation;
+        const std::string_view marker = ir::kQasmAnnotation;
         std::vector<std::pair<int, std::string>> renames;
         uint32_t line = 1;
         for (size_t pos = 0; pos < text.size(); ++line) {

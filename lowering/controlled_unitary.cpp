@@ -10,7 +10,7 @@
 
 #include "ir/error.h"
 #include "lowering/control_lowerer.h"
-#include "lowering/euler.h"
+#include "synthesis/euler.h"
 #include "lowering/mcx_constructions.h"
 
 namespace whittle::lowering {

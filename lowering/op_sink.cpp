@@ -1,7 +1,7 @@
 // OpSink: location- and condition-preserving op emission.
 #include "lowering/op_sink.h"
 
-#include "lowering/euler.h"
+#include "synthesis/euler.h"
 
 namespace whittle::lowering {
 

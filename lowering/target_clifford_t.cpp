@@ -3,8 +3,8 @@
 
 #include "ir/error.h"
 #include "ir/resources.h"
-#include "lowering/euler.h"
-#include "lowering/rotation_synthesis.h"
+#include "synthesis/euler.h"
+#include "synthesis/rotation_synthesis.h"
 #include "lowering/target_lowering.h"
 #include "lowering/toffoli_forms.h"
 

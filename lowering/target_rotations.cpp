@@ -2,10 +2,10 @@
 #include <fmt/format.h>
 
 #include "ir/error.h"
-#include "lowering/euler.h"
+#include "synthesis/euler.h"
 #include "lowering/target_lowering.h"
 #include "lowering/toffoli_forms.h"
-#include "lowering/two_qubit_synthesis.h"
+#include "synthesis/two_qubit_synthesis.h"
 
 namespace whittle::lowering {
 namespace {

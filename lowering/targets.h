@@ -5,7 +5,8 @@
 #include <vector>
 
 #include "ir/circuit.h"
-#include "lowering/euler.h"
+#include "ir/entangler.h"
+#include "synthesis/euler.h"
 
 namespace whittle::lowering {
 
@@ -25,7 +26,7 @@ bool in_target(const ir::Op& op, Target t);
 OneQubitBasis one_qubit_basis(Target t);
 
 /// The two-qubit gate the target is built on.
-enum class Entangler : uint8_t { CX, CZ, ISwap, XX };
+using ir::Entangler;
 Entangler entangler(Target t);
 
 }  // namespace whittle::lowering

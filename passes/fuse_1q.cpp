@@ -5,7 +5,7 @@
 #include <algorithm>
 
 #include "ir/resources.h"
-#include "lowering/euler.h"
+#include "synthesis/euler.h"
 #include "lowering/targets.h"
 
 namespace whittle::passes {

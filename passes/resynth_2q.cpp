@@ -3,7 +3,7 @@
 #include "passes/op_replacements.h"
 
 #include "lowering/targets.h"
-#include "lowering/two_qubit_synthesis.h"
+#include "synthesis/two_qubit_synthesis.h"
 
 namespace whittle::passes {
 namespace {

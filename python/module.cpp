@@ -13,13 +13,13 @@
 #include "frontend/load.h"
 #include "ir/printer.h"
 #include "ir/resources.h"
-#include "lowering/draw.h"
-#include "lowering/emit_qasm.h"
-#include "lowering/report.h"
+#include "output/draw.h"
+#include "output/emit_qasm.h"
+#include "output/report.h"
 #include "passes/pipeline.h"
 // whittle.equiv is bound when the equivalence checker is part of the library.
-#if __has_include("passes/equivalence.h")
-#include "passes/equivalence.h"
+#if __has_include("verify/equivalence.h")
+#include "verify/equivalence.h"
 #define WHITTLE_PY_HAS_EQUIV 1
 #endif
 

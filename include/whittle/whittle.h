@@ -14,6 +14,6 @@
 #include "passes/pipeline.h"
 #include "passes/registry.h"
 
-#include "lowering/draw.h"
-#include "lowering/emit_qasm.h"
-#include "lowering/report.h"
+#include "output/draw.h"
+#include "output/emit_qasm.h"
+#include "output/report.h"

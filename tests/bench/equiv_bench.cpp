@@ -2,7 +2,7 @@
 #include <chrono>
 #include <cstdio>
 
-#include "passes/equivalence.h"
+#include "verify/equivalence.h"
 #include "support/textbook_circuits.h"
 
 int main() {

@@ -6,7 +6,7 @@
 #include <numbers>
 #include <random>
 
-#include "lowering/rotation_synthesis.h"
+#include "synthesis/rotation_synthesis.h"
 
 namespace {
 

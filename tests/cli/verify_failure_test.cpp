@@ -14,9 +14,9 @@
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
-#include "frontend/cli/commands.h"
+#include "cli/commands.h"
 #include "frontend/load.h"
-#include "passes/equivalence.h"
+#include "verify/equivalence.h"
 #include "passes/registry.h"
 #include "support/dense_unitary.h"
 

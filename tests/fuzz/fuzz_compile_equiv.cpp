@@ -4,7 +4,7 @@
 
 #include "ir/error.h"
 #include "ir/printer.h"
-#include "passes/equivalence.h"
+#include "verify/equivalence.h"
 #include "passes/pipeline.h"
 #include "tests/fuzz/fuzz_input.h"
 

@@ -7,7 +7,7 @@
 #include "equivalence_helpers.h"
 #include "lowering/control_lowerer.h"
 #include "lowering/mcx_constructions.h"
-#include "passes/equivalence.h"
+#include "verify/equivalence.h"
 #include "passes/lower_controls.h"
 #include "passes/pipeline.h"
 

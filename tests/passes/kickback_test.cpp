@@ -7,7 +7,7 @@
 #include "ir/printer.h"
 #include "passes/cancel.h"
 #include "passes/commutation.h"
-#include "passes/equivalence.h"
+#include "verify/equivalence.h"
 #include "passes/kickback.h"
 #include "pass_check.h"
 #include "support/dense_unitary.h"

@@ -7,7 +7,7 @@
 #include <iostream>
 
 #include "ir/printer.h"
-#include "passes/equivalence.h"
+#include "verify/equivalence.h"
 #include "passes/registry.h"
 #include "pass_check.h"
 #include "support/random_circuit.h"

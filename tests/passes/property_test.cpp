@@ -9,9 +9,9 @@
 
 #include "ir/error.h"
 #include "ir/printer.h"
-#include "passes/equiv_engines.h"
-#include "passes/equivalence.h"
-#include "passes/path_sum.h"
+#include "verify/equiv_engines.h"
+#include "verify/equivalence.h"
+#include "verify/path_sum.h"
 #include "passes/pipeline.h"
 #include "passes/registry.h"
 #include "support/dense_unitary.h"

@@ -36,14 +36,14 @@ with tempfile.TemporaryDirectory() as tmp:
         "include/whittle/ir/circuit.h",
         "include/whittle/frontend/load.h",
         "include/whittle/passes/pipeline.h",
-        "include/whittle/lowering/report.h",
+        "include/whittle/output/report.h",
         "lib/cmake/whittle/whittleConfig.cmake",
         "lib/cmake/whittle/whittleTargets.cmake",
     ]
-    libdirs = [d for d in ("lib", "lib64") if os.path.exists(os.path.join(prefix, d, "libwhittle.a"))]
+    libdirs = [d for d in ("lib", "lib64") if os.path.exists(os.path.join(prefix, d, "libwhittle_ir.a"))]
     ok = bool(libdirs)
     if not ok:
-        print("libwhittle.a not installed")
+        print("libwhittle_ir.a not installed")
     for rel in expected:
         if not os.path.exists(os.path.join(prefix, rel)):
             print("not installed:", rel)
@@ -54,7 +54,7 @@ with tempfile.TemporaryDirectory() as tmp:
             if f.endswith(".wq") and not os.path.exists(os.path.join(prefix, "share/whittle/stdlib", f)):
                 print("stdlib file not installed:", f)
                 ok = False
-    if os.path.exists(os.path.join(prefix, "include/whittle/frontend/cli")):
+    if os.path.exists(os.path.join(prefix, "include/whittle/cli")):
         print("the CLI's private headers were installed")
         ok = False
     # The installed CLI runs.

@@ -19,7 +19,7 @@ if not db_path.exists():
     print("skipped: no compile_commands.json in", build)
     sys.exit(77)
 
-FILES = ["ir/printer.cpp", "lowering/norm_equation.cpp", "lowering/target_clifford_t.cpp"]
+FILES = ["ir/printer.cpp", "synthesis/norm_equation.cpp", "lowering/target_clifford_t.cpp"]
 entries = {pathlib.Path(e["file"]).resolve(): e for e in json.loads(db_path.read_text())}
 failures = 0
 for rel in FILES:

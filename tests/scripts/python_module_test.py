@@ -97,9 +97,9 @@ except whittle.Error:
     pass
 check(issubclass(whittle.Error, Exception), "whittle.Error is an Exception")
 
-# whittle.equiv, bound when the library has the equivalence checker (passes/equivalence.h).
-if os.path.exists(os.path.join(SRC, "passes", "equivalence.h")):
-    check(hasattr(whittle, "equiv"), "whittle.equiv missing although passes/equivalence.h exists")
+# whittle.equiv, bound when the library has the equivalence checker (verify/equivalence.h).
+if os.path.exists(os.path.join(SRC, "verify", "equivalence.h")):
+    check(hasattr(whittle, "equiv"), "whittle.equiv missing although verify/equivalence.h exists")
     # CNOT conjugated by H on both wires is the CNOT the other way round (Nielsen & Chuang, ch. 4; practice).
     flipped = whittle.load("qubit q[2]\nh q[0]; h q[1]\nq[1] ^= q[0]\nh q[0]; h q[1]\n")
     reversed_cx = whittle.load("qubit q[2]\nq[0] ^= q[1]\n")
@@ -110,7 +110,7 @@ if os.path.exists(os.path.join(SRC, "passes", "equivalence.h")):
     check(e["equivalent"] is False and e["verdict"] == "not equivalent", f"equiv(HH CX HH, CX): {e}")
     check(whittle.equiv(c, low)["verdict"] != "not equivalent", "a compiled circuit is equivalent to its source")
 else:
-    print("note: passes/equivalence.h is not in this tree; whittle.equiv is not bound")
+    print("note: verify/equivalence.h is not in this tree; whittle.equiv is not bound")
 
 # Diagrams from Python: the same SVG the CLI writes.
 check(low.draw("svg").lstrip().startswith("<?xml"), "draw('svg')")

@@ -1,0 +1,390 @@
+// `whittle compile`: read, optimize, lower, check and emit; several inputs compile in parallel (-j).
+#include <algorithm>
+#include <atomic>
+#include <chrono>
+#include <filesystem>
+#include <iostream>
+#include <map>
+#include <memory>
+#include <mutex>
+#include <sstream>
+#include <thread>
+
+#include <fmt/format.h>
+#include <fmt/ranges.h>
+
+#include "cli/commands.h"
+#include "cli/driver.h"
+#include "cli/progress.h"
+#include "cli/verify_hook.h"
+#include "frontend/load.h"
+#include "ir/printer.h"
+#include "ir/resources.h"
+#include "output/emit_qasm.h"
+#include "output/report.h"
+#include "lowering/targets.h"
+#include "verify/ancilla_contract.h"
+#include "passes/pipeline.h"
+#include "passes/registry.h"
+
+namespace whittle::cli {
+namespace {
+
+struct CompileArgs {
+    std::vector<std::string> inputs;
+    std::string output;
+    unsigned jobs = 1;
+    std::string target;
+    bool target_given = false;  // --target was on the command line (even as '')
+    int level = 2;
+    std::string optimize_for = "t";
+    bool allow_measurement = false;
+    bool verify = false;
+    bool no_check = false;
+    std::string report;
+    std::string emit;
+    std::string passes;
+    std::vector<std::string> dump_after;
+    bool time_passes = false;
+    bool stats = false;
+    uint32_t extra_ancillas = 0;
+    double epsilon = 1e-10;
+    bool quiet = false;
+    std::vector<std::string> include_dirs;
+};
+
+/// One compile: an input and where its output goes ("" = stdout), and the tag that keeps its
+/// --verify failure files apart from the other inputs' in a batch.
+struct Job {
+    std::string input;
+    std::string output;
+    std::string verify_tag;
+};
+
+std::string emit_format(const CompileArgs& a, const std::string& output) {
+    if (!a.emit.empty()) return a.emit;
+    auto ends = [&](const char* ext) {
+        std::string e(ext);
+        return output.size() >= e.size() && output.compare(output.size() - e.size(), e.size(), e) == 0;
+    };
+    if (ends(".qasm3")) return "qasm3";
+    if (ends(".qasm")) return "qasm2";
+    return "wq";
+}
+
+passes::Metric parse_metric(const std::string& s) {
+    if (s == "t") return passes::Metric::TCount;
+    if (s == "2q") return passes::Metric::TwoQubit;
+    if (s == "depth") return passes::Metric::Depth;
+    throw UserError(fmt::format("--optimize-for takes t, 2q or depth, not '{}'", s));
+}
+
+/// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are
+/// reported as not checked (the copy and the check would cost more than the compile's budget).
+constexpr size_t kFinalCheckMaxOps = size_t(1) << 18;
+/// The time the input's ancilla contract check may take.
+constexpr double kContractSeconds = 1.0;
+
+/// The --epsilon range: the rotation synthesis is bounded in time and memory over all of it
+/// (README "Rotations"; tests/cli/compile_options_test.cpp measures both ends).
+constexpr double kMinEpsilon = 1e-15;
+
+bool ends_with(const std::string& s, const char* ext) {
+    const std::string e(ext);
+    return s.size() >= e.size() && s.compare(s.size() - e.size(), e.size(), e) == 0;
+}
+
+/// Refuses, before any input is read, option values that would be ignored or would make the output
+/// or the report say something that is not so.
+void check_options(const CompileArgs& a) {
+    namespace fs = std::filesystem;
+    std::string known_targets;
+    for (lowering::Target t : lowering::all_targets())
+        known_targets += (known_targets.empty() ? "" : ", ") + std::string(lowering::target_name(t));
+    if (a.target_given && a.target.empty())
+        throw UserError(fmt::format("--target needs a gate set (known targets: {})", known_targets));
+    if (!a.target.empty()) {
+        bool known = false;
+        for (lowering::Target t : lowering::all_targets()) known = known || a.target == lowering::target_name(t);
+        if (!known) throw UserError(fmt::format("--target '{}' is not a known target (known targets: {})", a.target, known_targets));
+    }
+    if (!(a.epsilon >= kMinEpsilon && a.epsilon < 1))
+        throw UserError(fmt::format("--epsilon must lie in [1e-15, 1), got {}", a.epsilon));
+    if (!a.emit.empty() && a.emit != "wq" && a.emit != "qasm2" && a.emit != "qasm3")
+        throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", a.emit));
+    parse_metric(a.optimize_for);
+
+    passes::PassOptions po;
+    po.target = a.target;
+    po.level = a.level;
+    const std::vector<std::string> names = a.passes.empty() ? passes::pipeline_for(po) : passes::parse_pass_list(a.passes);
+    if (!a.passes.empty() && !a.target.empty() && std::find(names.begin(), names.end(), "to-target") == names.end())
+        throw UserError(fmt::format("--passes runs only the passes listed, and '{}' has no to-target: the output would not be "
+                                    "in --target '{}'; list the lowering passes too (-O{} uses: {}) or leave out --passes",
+                                    a.passes, a.target, a.level, fmt::join(passes::pipeline_for(po), ",")));
+    for (const std::string& d : a.dump_after) {
+        if (d == "all") continue;
+        if (!passes::find_pass(d)) throw UserError(fmt::format("--dump-after '{}' is not a pass (see --passes for the names)", d));
+        if (std::find(names.begin(), names.end(), d) == names.end())
+            throw UserError(fmt::format("--dump-after '{}': that pass does not run here (the passes are: {})", d, fmt::join(names, ",")));
+    }
+
+    // One input: the output's format comes from its extension unless --emit names it.
+    std::error_code ec;
+    const bool to_stdout = a.output.empty() || a.output == "-";
+    if (a.inputs.size() == 1 && !to_stdout && a.emit.empty() && !ends_with(a.output, ".wq") && !ends_with(a.output, ".qasm") &&
+        !ends_with(a.output, ".qasm3")) {
+        const fs::file_status st = fs::status(a.output, ec);
+        const bool special = !ec && fs::exists(st) && !fs::is_regular_file(st);  // a folder (batch), /dev/null, a pipe
+        if (!special)
+            throw UserError(fmt::format("-o '{}': the extension names no output format (.wq, .qasm or .qasm3); add --emit wq, "
+                                        "qasm2 or qasm3 to write this name",
+                                        a.output));
+    }
+    if (!a.report.empty()) {
+        const bool report_stdout = a.report == "-";
+        if ((report_stdout && to_stdout) ||
+            (!report_stdout && !to_stdout && fs::weakly_canonical(a.report, ec) == fs::weakly_canonical(a.output, ec)))
+            throw UserError(fmt::format("--report '{}' and the output are the same file; give the report a name of its own",
+                                        report_stdout ? std::string("-") : a.report));
+    }
+}
+
+/// Compiles one input; diagnostics and --stats / --dump-after text go to `err`.
+int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::ostream& err) {
+    frontend::SourceManager sm;
+    return guarded(sm, [&]() -> int {
+        refuse_overwriting_input(job.input, job.output);
+        frontend::LoadOptions lo;
+        lo.include_dirs = a.include_dirs;
+        ir::Circuit c = frontend::load_file(job.input, sm, lo);
+
+        passes::PassOptions po;
+        po.target = a.target;
+        po.level = a.level;
+        po.optimize_for = parse_metric(a.optimize_for);
+        po.allow_measurement = a.allow_measurement;
+        po.extra_ancillas = a.extra_ancillas;
+        po.epsilon = a.epsilon;
+
+        std::vector<std::string> names = a.passes.empty() ? passes::pipeline_for(po) : passes::parse_pass_list(a.passes);
+        passes::PipelineHooks hooks;
+        if (!a.dump_after.empty()) {
+            hooks.after_pass = [&](const std::string& name, const ir::Circuit& now) {
+                for (const std::string& d : a.dump_after)
+                    if (d == name || d == "all") err << "# after " << name << "\n" << ir::print_wq(now);
+            };
+        }
+        // The input as read, kept for the report's "input_resources" only when a report is asked for.
+        ir::Circuit source;
+        const bool final_check = !a.no_check && c.ops.size() <= kFinalCheckMaxOps;
+        // The lowering takes a declared ancilla for a clean work wire wherever the program does not
+        // use it, so a program that leaves one dirty would compile into a wrong circuit: refuse it.
+        std::string contract_note;
+        if (final_check && std::any_of(c.qubits.begin(), c.qubits.end(),
+                                       [](const ir::Qubit& q) { return q.role == ir::Role::Clean; })) {
+            const passes::AncillaContract contract = passes::check_ancilla_contract(c, kContractSeconds);
+            if (contract.status == passes::AncillaContract::Status::Violated) throw passes::contract_violation(c, contract);
+            if (contract.status == passes::AncillaContract::Status::Undecided)
+                contract_note = fmt::format(" (ancillas not proven returned to |0>: {})", contract.method);
+        }
+        if (!a.report.empty() || final_check) source = c;
+        const auto compile_start = std::chrono::steady_clock::now();
+        if (a.verify) hooks.verify = PassVerifier(verify_folder_for(job.output), passes::EquivOptions{}, job.verify_tag);
+        ProgressLine progress(show_progress);
+        hooks.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
+        std::vector<passes::PassRecord> records;
+        try {
+            records = passes::run_passes(c, names, po, hooks);
+        } catch (const VerifyFailure& failure) {
+            progress.finish();
+            err << failure.what();
+            return kCheckFailed;
+        }
+        progress.finish();
+        if (!a.passes.empty() && !po.target.empty()) {
+            // A hand-written list may end with a pass that leaves the target (the report would claim it).
+            const lowering::Target t = lowering::parse_target(po.target);
+            for (const ir::Op& op : c.ops)
+                if (!lowering::in_target(op, t))
+                    throw UserError(fmt::format("--passes '{}' leaves {} outside --target '{}'; end the list with "
+                                                "to-target (and its cleanup passes)",
+                                                a.passes, ir::op_kind_name(op.kind), po.target),
+                                    op.loc);
+        }
+        const double compile_seconds =
+            std::chrono::duration<double>(std::chrono::steady_clock::now() - compile_start).count();
+        std::string verdict = a.no_check ? "not checked (--no-check)"
+                                         : fmt::format("not checked: the input has over {} ops", kFinalCheckMaxOps);
+        if (final_check) {
+            const FinalCheck check = check_final_output(source, c, compile_seconds);
+            if (check.verdict == passes::Verdict::NotEquivalent) {
+                err << check.failure;
+                return kCheckFailed;
+            }
+            verdict = check.summary + contract_note;
+        }
+        if (a.stats || a.time_passes) {
+            for (const passes::PassRecord& r : records) {
+                std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
+                                               r.name, r.ops_before, r.ops_after, r.t_before, r.t_after,
+                                               r.cnot_before, r.cnot_after);
+                if (a.time_passes)
+                    line += fmt::format(" {:9.3f} ms  peak {:>6} MiB", r.seconds * 1e3, r.peak_rss_kib / 1024);
+                if (a.stats)
+                    for (const auto& [k, v] : r.result.stats) line += fmt::format(" {}={}", k, v);
+                err << line << "\n";
+            }
+        }
+        std::string format = emit_format(a, job.output);
+        std::string text;
+        if (format == "wq") text = ir::print_wq(c);
+        else if (format == "qasm2") text = lowering::emit_qasm2(c);
+        else if (format == "qasm3") text = lowering::emit_qasm3(c);
+        else throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", format));
+        if (!a.report.empty()) {
+            lowering::CompileReportInput ri;
+            ri.input = job.input;
+            ri.source = &source;
+            ri.output = &c;
+            ri.options = po;
+            ri.explicit_passes = a.passes;
+            ri.emit = format;
+            ri.verify = a.verify;
+            ri.records = std::move(records);
+            refuse_overwriting_input(job.input, a.report);
+            write_output(a.report, lowering::compile_report(ri).dump(2) + "\n");
+        }
+        write_output(job.output, text);
+        if (!a.quiet) {
+            const ir::Resources res = ir::count_resources(c);
+            err << fmt::format("{}: {} qubits, T {}, two-qubit {}, depth {}; {}\n", job.input, res.qubits, res.t_count,
+                               res.two_qubit_count, res.depth, verdict);
+        }
+        return kOk;
+    }, err);
+}
+
+/// The file extension of an output in --emit's format (batch outputs are named stem + this).
+const char* extension_of(const std::string& emit) {
+    if (emit == "qasm2") return ".qasm";
+    if (emit == "qasm3") return ".qasm3";
+    if (emit.empty() || emit == "wq") return ".wq";
+    throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", emit));
+}
+
+/// The jobs of a batch: one output per input in the folder `a.output`, named by the input's stem.
+/// Two inputs with one stem would write one file, so that is refused before anything runs.
+std::vector<Job> batch_jobs(const CompileArgs& a) {
+    namespace fs = std::filesystem;
+    if (a.output.empty() || a.output == "-")
+        throw UserError("several inputs need -o FOLDER: each output is written there as the input's name with the --emit extension");
+    if (!a.report.empty() && a.inputs.size() > 1)
+        throw UserError("--report takes one input; run the inputs one at a time to get a report each");
+    std::error_code ec;
+    if (!fs::is_directory(a.output, ec))
+        throw UserError(fmt::format("-o '{}' must be an existing folder when several inputs are given", a.output));
+    const std::string ext = extension_of(a.emit);
+    std::vector<Job> jobs;
+    std::map<std::string, std::string> by_output;
+    for (const std::string& in : a.inputs) {
+        const std::string stem = fs::path(in).stem().string();
+        Job job{in, (fs::path(a.output) / (stem + ext)).string(), stem + "-"};
+        auto [it, fresh] = by_output.emplace(job.output, in);
+        if (!fresh)
+            throw UserError(fmt::format("inputs '{}' and '{}' would both write '{}'; give them different names", it->second, in,
+                                        job.output));
+        jobs.push_back(std::move(job));
+    }
+    return jobs;
+}
+
+/// Runs the jobs on `a.jobs` threads. Each job's messages are printed whole when it ends, so the
+/// lines of two files never interleave. The exit code is the worst of the jobs' (2 over 1 over 0).
+int run_batch(const CompileArgs& a, const std::vector<Job>& jobs) {
+    std::atomic<size_t> next{0};
+    std::mutex print_mutex;
+    int worst = kOk;
+    auto worker = [&]() {
+        for (size_t i = next++; i < jobs.size(); i = next++) {
+            std::ostringstream err;
+            int rc = compile_one(a, jobs[i], false, err);
+            std::lock_guard<std::mutex> lock(print_mutex);
+            std::cerr << err.str();
+            std::cerr.flush();
+            worst = std::max(worst, rc);
+        }
+    };
+    const size_t threads = std::min<size_t>(std::max(1u, a.jobs), jobs.size());
+    std::vector<std::thread> pool;
+    for (size_t t = 1; t < threads; ++t) pool.emplace_back(worker);
+    worker();
+    for (std::thread& t : pool) t.join();
+    return worst;
+}
+
+int run_compile(const CompileArgs& a) {
+    {
+        frontend::SourceManager none;
+        int rc = guarded(none, [&]() -> int {
+            check_options(a);
+            return kOk;
+        });
+        if (rc != kOk) return rc;
+    }
+    std::error_code ec;
+    const bool one = a.inputs.size() == 1 && !std::filesystem::is_directory(a.output, ec);
+    if (one) return compile_one(a, Job{a.inputs[0], a.output, ""}, !a.quiet, std::cerr);
+    std::vector<Job> jobs;
+    frontend::SourceManager no_sources;
+    int rc = guarded(no_sources, [&]() -> int {
+        jobs = batch_jobs(a);
+        return kOk;
+    });
+    if (rc != kOk) return rc;
+    return run_batch(a, jobs);
+}
+
+}  // namespace
+
+void add_compile_command(CLI::App& app, int& exit_code) {
+    auto args = std::make_shared<CompileArgs>();
+    CLI::App* cmd = app.add_subcommand("compile", "optimize and lower a program, then emit it");
+    cmd->add_option("input", args->inputs,
+                    "program(s) to compile (.wq or .qasm); several inputs need -o FOLDER and compile in parallel with -j")
+        ->required();
+    cmd->add_option("-o,--output", args->output,
+                    "output file (format by extension: .wq, .qasm, .qasm3); stdout when absent. With several inputs, "
+                    "or when it is an existing folder: the folder that gets one output per input, named by the "
+                    "input's stem and the --emit extension (.wq by default)");
+    cmd->add_option("-j,--jobs", args->jobs, "compile up to N inputs at once (threads; default 1)")
+        ->check(CLI::Range(1u, 1024u));
+    CLI::Option* target = cmd->add_option("--target", args->target,
+                    "native gate set: clifford+t, cx+rz+sx, cz+rx+rz, iswap+rz+rx, xx+r, u+cx, nct (default: stay high level)");
+    // One short option with an attached value: CLI11 reads -O0 .. -O3 as -O with 0 .. 3.
+    cmd->add_option("-O", args->level, "optimization level: -O0 none, -O1 cheap local, -O2 the default pipeline, -O3 everything")
+        ->check(CLI::Range(0, 3));
+    cmd->add_option("--optimize-for", args->optimize_for, "metric the constructions compete on: t, 2q or depth")
+        ->capture_default_str();
+    cmd->add_flag("--allow-measurement", args->allow_measurement,
+                  "allow measurement-based uncompute and classical feed-forward in the output");
+    cmd->add_flag("--verify", args->verify, "check equivalence after every pass; stop at the first pass that breaks it");
+    cmd->add_flag("--no-check", args->no_check,
+                  "skip the check of the output against the input (run by default within max(2 s, 10% of the compile time))");
+    cmd->add_option("--report", args->report, "write a JSON resource report to this file");
+    cmd->add_option("--emit", args->emit, "output format: wq, qasm2 or qasm3 (overrides the extension)");
+    cmd->add_option("--passes", args->passes, "run exactly this comma-separated list of passes instead of an -O pipeline");
+    cmd->add_option("--dump-after", args->dump_after, "print the circuit to stderr after the named pass (or 'all')");
+    cmd->add_flag("--time-passes", args->time_passes, "print each pass's time to stderr");
+    cmd->add_flag("--stats", args->stats, "print each pass's changes to stderr");
+    cmd->add_option("--extra-ancillas", args->extra_ancillas, "fresh clean wires the lowering may add (default 0)");
+    cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
+    cmd->add_flag("-q,--quiet", args->quiet, "no progress indicator");
+    cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");
+    cmd->callback([args, target, &exit_code]() {
+        args->target_given = target->count() > 0;
+        exit_code = run_compile(*args);
+    });
+}
+
+}  // namespace whittle::cli
