@@ -1,7 +1,6 @@
-// `whittle compile`: read, optimize, lower, check and emit; several inputs compile in parallel (-j).
+// `whittle compile`: the arguments, the output files and the summary line around compiler::compile; -j runs a batch.
 #include <algorithm>
 #include <atomic>
-#include <chrono>
 #include <filesystem>
 #include <iostream>
 #include <map>
@@ -11,21 +10,14 @@
 #include <thread>
 
 #include <fmt/format.h>
-#include <fmt/ranges.h>
 
 #include "cli/commands.h"
 #include "cli/driver.h"
 #include "cli/progress.h"
 #include "cli/verify_hook.h"
-#include "frontend/load.h"
-#include "ir/printer.h"
+#include "compiler/compile.h"
+#include "frontend/diagnostics.h"
 #include "ir/resources.h"
-#include "output/emit_qasm.h"
-#include "output/report.h"
-#include "lowering/targets.h"
-#include "verify/ancilla_contract.h"
-#include "passes/pipeline.h"
-#include "passes/registry.h"
 
 namespace whittle::cli {
 namespace {
@@ -72,62 +64,52 @@ std::string emit_format(const CompileArgs& a, const std::string& output) {
     return "wq";
 }
 
-passes::Metric parse_metric(const std::string& s) {
-    if (s == "t") return passes::Metric::TCount;
-    if (s == "2q") return passes::Metric::TwoQubit;
-    if (s == "depth") return passes::Metric::Depth;
-    throw UserError(fmt::format("--optimize-for takes t, 2q or depth, not '{}'", s));
-}
-
-/// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are
-/// reported as not checked (the copy and the check would cost more than the compile's budget).
-constexpr size_t kFinalCheckMaxOps = size_t(1) << 18;
-/// The time the input's ancilla contract check may take.
-constexpr double kContractSeconds = 1.0;
-
-/// The --epsilon range: the rotation synthesis is bounded in time and memory over all of it
-/// (README "Rotations"; tests/cli/compile_options_test.cpp measures both ends).
-constexpr double kMinEpsilon = 1e-15;
-
 bool ends_with(const std::string& s, const char* ext) {
     const std::string e(ext);
     return s.size() >= e.size() && s.compare(s.size() - e.size(), e.size(), e) == 0;
+}
+
+compiler::Emit parse_emit(const std::string& e) {
+    if (e == "wq") return compiler::Emit::Wq;
+    if (e == "qasm2") return compiler::Emit::Qasm2;
+    if (e == "qasm3") return compiler::Emit::Qasm3;
+    throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", e));
+}
+
+/// The compile options of the command line, the target and the metric parsed here once; the
+/// output format and the report are per job (compile_one).
+compiler::CompileOptions compile_options(const CompileArgs& a) {
+    if (a.target_given && a.target.empty())
+        throw UserError(fmt::format("--target needs a gate set (known targets: {})", ir::known_target_names()));
+    compiler::CompileOptions o;
+    if (!a.target.empty()) {
+        bool known = false;
+        for (ir::Target t : ir::all_targets()) known = known || a.target == ir::target_name(t);
+        if (!known)
+            throw UserError(fmt::format("--target '{}' is not a known target (known targets: {})", a.target,
+                                        ir::known_target_names()));
+        o.target = ir::parse_target(a.target);
+    }
+    if (!a.emit.empty()) parse_emit(a.emit);
+    o.optimize_for = ir::parse_metric(a.optimize_for, "--optimize-for");
+    o.level = a.level;
+    o.allow_measurement = a.allow_measurement;
+    o.extra_ancillas = a.extra_ancillas;
+    o.epsilon = a.epsilon;
+    o.passes = a.passes;
+    o.dump_after = a.dump_after;
+    o.stats = a.stats;
+    o.time_passes = a.time_passes;
+    o.check = !a.no_check;
+    o.include_dirs = a.include_dirs;
+    return o;
 }
 
 /// Refuses, before any input is read, option values that would be ignored or would make the output
 /// or the report say something that is not so.
 void check_options(const CompileArgs& a) {
     namespace fs = std::filesystem;
-    std::string known_targets;
-    for (lowering::Target t : lowering::all_targets())
-        known_targets += (known_targets.empty() ? "" : ", ") + std::string(lowering::target_name(t));
-    if (a.target_given && a.target.empty())
-        throw UserError(fmt::format("--target needs a gate set (known targets: {})", known_targets));
-    if (!a.target.empty()) {
-        bool known = false;
-        for (lowering::Target t : lowering::all_targets()) known = known || a.target == lowering::target_name(t);
-        if (!known) throw UserError(fmt::format("--target '{}' is not a known target (known targets: {})", a.target, known_targets));
-    }
-    if (!(a.epsilon >= kMinEpsilon && a.epsilon < 1))
-        throw UserError(fmt::format("--epsilon must lie in [1e-15, 1), got {}", a.epsilon));
-    if (!a.emit.empty() && a.emit != "wq" && a.emit != "qasm2" && a.emit != "qasm3")
-        throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", a.emit));
-    parse_metric(a.optimize_for);
-
-    passes::PassOptions po;
-    po.target = a.target;
-    po.level = a.level;
-    const std::vector<std::string> names = a.passes.empty() ? passes::pipeline_for(po) : passes::parse_pass_list(a.passes);
-    if (!a.passes.empty() && !a.target.empty() && std::find(names.begin(), names.end(), "to-target") == names.end())
-        throw UserError(fmt::format("--passes runs only the passes listed, and '{}' has no to-target: the output would not be "
-                                    "in --target '{}'; list the lowering passes too (-O{} uses: {}) or leave out --passes",
-                                    a.passes, a.target, a.level, fmt::join(passes::pipeline_for(po), ",")));
-    for (const std::string& d : a.dump_after) {
-        if (d == "all") continue;
-        if (!passes::find_pass(d)) throw UserError(fmt::format("--dump-after '{}' is not a pass (see --passes for the names)", d));
-        if (std::find(names.begin(), names.end(), d) == names.end())
-            throw UserError(fmt::format("--dump-after '{}': that pass does not run here (the passes are: {})", d, fmt::join(names, ",")));
-    }
+    compiler::check_options(compile_options(a));
 
     // One input: the output's format comes from its extension unless --emit names it.
     std::error_code ec;
@@ -155,111 +137,29 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
     frontend::SourceManager sm;
     return guarded(sm, [&]() -> int {
         refuse_overwriting_input(job.input, job.output);
-        frontend::LoadOptions lo;
-        lo.include_dirs = a.include_dirs;
-        ir::Circuit c = frontend::load_file(job.input, sm, lo);
-
-        passes::PassOptions po;
-        po.target = a.target;
-        po.level = a.level;
-        po.optimize_for = parse_metric(a.optimize_for);
-        po.allow_measurement = a.allow_measurement;
-        po.extra_ancillas = a.extra_ancillas;
-        po.epsilon = a.epsilon;
-
-        std::vector<std::string> names = a.passes.empty() ? passes::pipeline_for(po) : passes::parse_pass_list(a.passes);
-        passes::PipelineHooks hooks;
-        if (!a.dump_after.empty()) {
-            hooks.after_pass = [&](const std::string& name, const ir::Circuit& now) {
-                for (const std::string& d : a.dump_after)
-                    if (d == name || d == "all") err << "# after " << name << "\n" << ir::print_wq(now);
-            };
-        }
-        // The input as read, kept for the report's "input_resources" only when a report is asked for.
-        ir::Circuit source;
-        const bool final_check = !a.no_check && c.ops.size() <= kFinalCheckMaxOps;
-        // The lowering takes a declared ancilla for a clean work wire wherever the program does not
-        // use it, so a program that leaves one dirty would compile into a wrong circuit: refuse it.
-        std::string contract_note;
-        if (final_check && std::any_of(c.qubits.begin(), c.qubits.end(),
-                                       [](const ir::Qubit& q) { return q.role == ir::Role::Clean; })) {
-            const passes::AncillaContract contract = passes::check_ancilla_contract(c, kContractSeconds);
-            if (contract.status == passes::AncillaContract::Status::Violated) throw passes::contract_violation(c, contract);
-            if (contract.status == passes::AncillaContract::Status::Undecided)
-                contract_note = fmt::format(" (ancillas not proven returned to |0>: {})", contract.method);
-        }
-        if (!a.report.empty() || final_check) source = c;
-        const auto compile_start = std::chrono::steady_clock::now();
-        if (a.verify) hooks.verify = PassVerifier(verify_folder_for(job.output), passes::EquivOptions{}, job.verify_tag);
+        compiler::CompileOptions o = compile_options(a);
+        o.emit = parse_emit(emit_format(a, job.output));
+        o.report = !a.report.empty();
+        o.input_name = job.input;
+        o.log = &err;
+        if (a.verify) o.verify_pass = PassVerifier(verify_folder_for(job.output), passes::EquivOptions{}, job.verify_tag);
         ProgressLine progress(show_progress);
-        hooks.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
-        std::vector<passes::PassRecord> records;
-        try {
-            records = passes::run_passes(c, names, po, hooks);
-        } catch (const VerifyFailure& failure) {
-            progress.finish();
-            err << failure.what();
+        o.progress = [&](const std::string& name, size_t i, size_t n) { progress.update(name, i, n); };
+        o.passes_done = [&] { progress.finish(); };
+        const compiler::CompileResult r = compiler::compile_file(job.input, o, sm);
+        if (r.status != compiler::CompileStatus::Ok) {
+            err << r.failure;
             return kCheckFailed;
         }
-        progress.finish();
-        if (!a.passes.empty() && !po.target.empty()) {
-            // A hand-written list may end with a pass that leaves the target (the report would claim it).
-            const lowering::Target t = lowering::parse_target(po.target);
-            for (const ir::Op& op : c.ops)
-                if (!lowering::in_target(op, t))
-                    throw UserError(fmt::format("--passes '{}' leaves {} outside --target '{}'; end the list with "
-                                                "to-target (and its cleanup passes)",
-                                                a.passes, ir::op_kind_name(op.kind), po.target),
-                                    op.loc);
-        }
-        const double compile_seconds =
-            std::chrono::duration<double>(std::chrono::steady_clock::now() - compile_start).count();
-        std::string verdict = a.no_check ? "not checked (--no-check)"
-                                         : fmt::format("not checked: the input has over {} ops", kFinalCheckMaxOps);
-        if (final_check) {
-            const FinalCheck check = check_final_output(source, c, compile_seconds);
-            if (check.verdict == passes::Verdict::NotEquivalent) {
-                err << check.failure;
-                return kCheckFailed;
-            }
-            verdict = check.summary + contract_note;
-        }
-        if (a.stats || a.time_passes) {
-            for (const passes::PassRecord& r : records) {
-                std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
-                                               r.name, r.ops_before, r.ops_after, r.t_before, r.t_after,
-                                               r.cnot_before, r.cnot_after);
-                if (a.time_passes)
-                    line += fmt::format(" {:9.3f} ms  peak {:>6} MiB", r.seconds * 1e3, r.peak_rss_kib / 1024);
-                if (a.stats)
-                    for (const auto& [k, v] : r.result.stats) line += fmt::format(" {}={}", k, v);
-                err << line << "\n";
-            }
-        }
-        std::string format = emit_format(a, job.output);
-        std::string text;
-        if (format == "wq") text = ir::print_wq(c);
-        else if (format == "qasm2") text = lowering::emit_qasm2(c);
-        else if (format == "qasm3") text = lowering::emit_qasm3(c);
-        else throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", format));
         if (!a.report.empty()) {
-            lowering::CompileReportInput ri;
-            ri.input = job.input;
-            ri.source = &source;
-            ri.output = &c;
-            ri.options = po;
-            ri.explicit_passes = a.passes;
-            ri.emit = format;
-            ri.verify = a.verify;
-            ri.records = std::move(records);
             refuse_overwriting_input(job.input, a.report);
-            write_output(a.report, lowering::compile_report(ri).dump(2) + "\n");
+            write_output(a.report, r.report.dump(2) + "\n");
         }
-        write_output(job.output, text);
+        write_output(job.output, r.text);
         if (!a.quiet) {
-            const ir::Resources res = ir::count_resources(c);
+            const ir::Resources res = ir::count_resources(r.circuit);
             err << fmt::format("{}: {} qubits, T {}, two-qubit {}, depth {}; {}\n", job.input, res.qubits, res.t_count,
-                               res.two_qubit_count, res.depth, verdict);
+                               res.two_qubit_count, res.depth, a.no_check ? "not checked (--no-check)" : r.check_summary);
         }
         return kOk;
     }, err);

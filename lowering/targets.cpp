@@ -25,32 +25,6 @@ bool positive(const ir::Op& op) {
 
 }  // namespace
 
-std::vector<Target> all_targets() {
-    return {Target::CliffordT, Target::CxRzSx, Target::CzRxRz, Target::ISwapRzRx, Target::XxR, Target::UCx, Target::Nct};
-}
-
-const char* target_name(Target t) {
-    switch (t) {
-    case Target::CliffordT: return "clifford+t";
-    case Target::CxRzSx: return "cx+rz+sx";
-    case Target::CzRxRz: return "cz+rx+rz";
-    case Target::ISwapRzRx: return "iswap+rz+rx";
-    case Target::XxR: return "xx+r";
-    case Target::UCx: return "u+cx";
-    case Target::Nct: return "nct";
-    }
-    return "?";
-}
-
-Target parse_target(const std::string& name) {
-    std::string known;
-    for (Target t : all_targets()) {
-        if (name == target_name(t)) return t;
-        known += (known.empty() ? "" : ", ") + std::string(target_name(t));
-    }
-    throw UserError(fmt::format("unknown target '{}' (known targets: {})", name, known));
-}
-
 OneQubitBasis one_qubit_basis(Target t) {
     switch (t) {
     case Target::CliffordT:

@@ -6,17 +6,16 @@
 
 #include "ir/circuit.h"
 #include "ir/entangler.h"
+#include "ir/target.h"
 #include "synthesis/euler.h"
 
 namespace whittle::lowering {
 
-enum class Target : uint8_t { CliffordT, CxRzSx, CzRxRz, ISwapRzRx, XxR, UCx, Nct };
-
-/// The target named `name` ("clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx",
-/// "nct"); UserError listing the known names otherwise.
-Target parse_target(const std::string& name);
-const char* target_name(Target t);
-std::vector<Target> all_targets();
+// The enum and its names are in ir/target.h (options carry it below the lowering).
+using ir::Target;
+using ir::parse_target;
+using ir::target_name;
+using ir::all_targets;
 
 /// True when `op` is one of the target's gates (measure, reset, barrier and classical conditions
 /// are allowed everywhere; nct allows no measurement).

@@ -78,8 +78,8 @@ std::vector<Op> simplify_clifford_t(const std::vector<Op>& run, uint32_t w) {
 
 PassResult fuse_1q(ir::Circuit& c, const PassOptions& opts) {
     PassResult r;
-    if (opts.target.empty()) return r;
-    const lowering::Target target = lowering::parse_target(opts.target);
+    if (!opts.target) return r;
+    const lowering::Target target = *opts.target;
     const size_t n = c.ops.size();
     std::vector<std::vector<size_t>> run(c.num_qubits());
     OpReplacements edits(n);

@@ -106,8 +106,8 @@ PassResult lower_controls(ir::Circuit& c, const PassOptions& opts) {
     const int64_t rotation_t = int64_t(std::ceil(3 * std::log2(1 / std::max(opts.epsilon, 1e-300))));
     // On clifford+t such a rotation becomes a word of about two gates per T (measured: ~180 layers
     // per rotation at 1e-10); elsewhere it is one native gate.
-    const int64_t rotation_depth = opts.target == "clifford+t" ? 2 * rotation_t : 1;
-    lowering::ControlLowerer lw(c, sink, tracker.zero_wires(), style_of(opts.optimize_for), opts.target == "nct",
+    const int64_t rotation_depth = opts.target == ir::Target::CliffordT ? 2 * rotation_t : 1;
+    lowering::ControlLowerer lw(c, sink, tracker.zero_wires(), style_of(opts.optimize_for), opts.target == ir::Target::Nct,
                                 std::max<int64_t>(rotation_t, 1), rotation_depth);
     size_t lowered = 0;
     for (size_t i = 0; i < c.ops.size(); ++i) {

@@ -2,20 +2,22 @@
 #pragma once
 
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
 
 #include "ir/circuit.h"
+#include "ir/target.h"
 
 namespace whittle::passes {
 
-/// What the user asked the compiler to minimise when constructions compete.
-enum class Metric : uint8_t { TCount, TwoQubit, Depth };
+/// What the user asked the compiler to minimise when constructions compete (ir/target.h).
+using ir::Metric;
 
-/// Options every pass may read. Filled from the command line (frontend/cli) or the Python module.
+/// Options every pass may read. Filled by compiler::compile from its typed options.
 struct PassOptions {
-    std::string target = "";          ///< gate set name ("clifford+t", "nct", ...); empty = stay high level
+    std::optional<ir::Target> target; ///< the native gate set; none = stay high level
     int level = 2;                    ///< -O level
     Metric optimize_for = Metric::TCount;
     bool allow_measurement = false;   ///< measurement-based uncompute and feed-forward allowed

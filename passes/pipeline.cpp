@@ -62,7 +62,7 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         // -O3 repeats the round: merges expose cancellations and foldings, and vice versa.
         add({"merge-controls", "fold-phases", "cancel"});
     }
-    if (opts.target.empty()) return p;
+    if (!opts.target) return p;
     // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
     // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
     // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
@@ -70,7 +70,7 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     add({"pair-uncompute", "plan-ancillas", "lower-controls"});
     // pair-uncompute again: the constructions' own Toffolis (e.g. the two halves of the Lemma 7.3
     // split) form pairs that lower-toffoli can give relative phases; it checks every middle.
-    if (opts.target != "nct") add({"pair-uncompute", "lower-toffoli"});
+    if (*opts.target != ir::Target::Nct) add({"pair-uncompute", "lower-toffoli"});
     if (level >= 1) {
         // Low level, still in H / CNOT / phase form (before to-target turns H into the target's
         // axes and hides the path variables). gate-cancel first removes the H pairs between
@@ -82,7 +82,7 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         if (level >= 3) add({"fold-rotations", "gate-cancel"});
     }
     add({"to-target", "fuse-1q"});
-    if (opts.target != "nct" && opts.target != "clifford+t") add({"resynth-2q", "fuse-1q"});
+    if (*opts.target != ir::Target::Nct && *opts.target != ir::Target::CliffordT) add({"resynth-2q", "fuse-1q"});
     return p;
 }
 

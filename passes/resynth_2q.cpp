@@ -25,8 +25,8 @@ struct Block {
 
 PassResult resynth_2q(ir::Circuit& c, const PassOptions& opts) {
     PassResult r;
-    if (opts.target.empty()) return r;
-    const lowering::Target target = lowering::parse_target(opts.target);
+    if (!opts.target) return r;
+    const lowering::Target target = *opts.target;
     if (target == lowering::Target::CliffordT || target == lowering::Target::Nct) return r;
     const size_t n = c.ops.size();
     std::vector<Block> blocks;

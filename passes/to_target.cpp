@@ -10,8 +10,8 @@ namespace whittle::passes {
 
 PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
     PassResult r;
-    if (opts.target.empty()) return r;
-    const lowering::Target t = lowering::parse_target(opts.target);
+    if (!opts.target) return r;
+    const lowering::Target t = *opts.target;
     bool all_in = true;
     for (const ir::Op& op : c.ops) all_in = all_in && lowering::in_target(op, t);
     if (all_in) return r;

@@ -16,7 +16,7 @@
 #include "output/draw.h"
 #include "output/emit_qasm.h"
 #include "output/report.h"
-#include "passes/pipeline.h"
+#include "compiler/compile.h"
 // whittle.equiv is bound when the equivalence checker is part of the library.
 #if __has_include("verify/equivalence.h")
 #include "verify/equivalence.h"
@@ -41,10 +41,7 @@ struct PyCircuit {
     ir::Circuit circuit;
     std::string name;
     bool compiled = false;
-    passes::PassOptions options;
-    std::string explicit_passes;
-    std::shared_ptr<const ir::Circuit> source;  ///< the circuit before compile (for the report)
-    std::vector<passes::PassRecord> records;
+    lowering::Json report;  ///< once compiled: the compile report (count() returns it)
 };
 
 template <class F>
@@ -85,35 +82,38 @@ PyCircuit load(const std::string& path_or_text, const std::optional<std::string>
     return pc;
 }
 
-passes::Metric parse_metric(const std::string& s) {
-    if (s == "t") return passes::Metric::TCount;
-    if (s == "2q") return passes::Metric::TwoQubit;
-    if (s == "depth") return passes::Metric::Depth;
-    throw PyError(fmt::format("optimize_for must be 't', '2q' or 'depth', not '{}'", s));
+ir::Metric parse_metric(const std::string& s) {
+    try {
+        return ir::parse_metric(s, "optimize_for");
+    } catch (const UserError&) {
+        throw PyError(fmt::format("optimize_for must be 't', '2q' or 'depth', not '{}'", s));
+    }
 }
 
 PyCircuit compile(const PyCircuit& in, const std::string& target, int level, bool allow_measurement,
                   const std::string& optimize_for, const std::optional<std::string>& pass_list, double epsilon,
                   uint32_t extra_ancillas) {
     if (level < 0 || level > 3) throw PyError(fmt::format("level must be 0, 1, 2 or 3, not {}", level));
+    compiler::CompileOptions o;
+    o.level = level;
+    o.allow_measurement = allow_measurement;
+    o.optimize_for = parse_metric(optimize_for);
+    o.epsilon = epsilon;
+    o.extra_ancillas = extra_ancillas;
+    o.passes = pass_list.value_or("");
+    o.check = false;
+    o.report = true;  // count() returns it
+    o.input_name = in.name;
     PyCircuit out;
     out.sources = in.sources;
     out.name = in.name;
-    out.circuit = in.circuit;
     out.compiled = true;
-    out.source = std::make_shared<const ir::Circuit>(in.circuit);
-    out.options.target = target;
-    out.options.level = level;
-    out.options.allow_measurement = allow_measurement;
-    out.options.optimize_for = parse_metric(optimize_for);
-    out.options.epsilon = epsilon;
-    out.options.extra_ancillas = extra_ancillas;
-    out.explicit_passes = pass_list.value_or("");
     located(*in.sources, [&] {
-        std::vector<std::string> names =
-            pass_list ? passes::parse_pass_list(*pass_list) : passes::pipeline_for(out.options);
+        o.target = ir::parse_optional_target(target);
         py::gil_scoped_release release;
-        out.records = passes::run_passes(out.circuit, names, out.options);
+        compiler::CompileResult r = compiler::compile(in.circuit, o);
+        out.circuit = std::move(r.circuit);
+        out.report = std::move(r.report);
     });
     return out;
 }
@@ -122,14 +122,7 @@ py::object to_python(const lowering::Json& j) { return py::module_::import("json
 
 py::object count(const PyCircuit& pc) {
     if (!pc.compiled) return to_python(lowering::count_json(pc.circuit, pc.name));
-    lowering::CompileReportInput ri;
-    ri.input = pc.name;
-    ri.source = pc.source.get();
-    ri.output = &pc.circuit;
-    ri.options = pc.options;
-    ri.explicit_passes = pc.explicit_passes;
-    ri.records = pc.records;
-    return to_python(lowering::compile_report(ri));
+    return to_python(pc.report);
 }
 
 #ifdef WHITTLE_PY_HAS_EQUIV

@@ -21,7 +21,7 @@ ir::Circuit load(const std::string& program) {
 int64_t t_count_after(const std::string& program, int level, bool measure) {
     ir::Circuit c = load(program);
     passes::PassOptions o;
-    o.target = "clifford+t";
+    o.target = ir::parse_optional_target("clifford+t");
     o.level = level;
     o.allow_measurement = measure;
     passes::run_passes(c, passes::pipeline_for(o), o);

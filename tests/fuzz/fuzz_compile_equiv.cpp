@@ -26,7 +26,7 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
     static const char* const targets[] = {"", "clifford+t", "nct", "u+cx", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r"};
     passes::PassOptions po;
     po.level = 3;
-    po.target = targets[size % 8];
+    po.target = ir::parse_optional_target(targets[size % 8]);
     po.allow_measurement = (size / 8) % 2 == 1;
     ir::Circuit output = input;
     try {
@@ -39,7 +39,7 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
     const passes::EquivResult r = passes::check_equivalence(input, output, eo);
     if (r.verdict == passes::Verdict::NotEquivalent) {
         std::fprintf(stderr, "-O3 (target '%s') changed the meaning: %s by %s\ncounterexample: %s\ninput:\n%s\noutput:\n%s\n",
-                     po.target.c_str(), r.confidence.c_str(), r.engine.c_str(), r.counterexample.c_str(),
+                     ir::target_label(po.target).c_str(), r.confidence.c_str(), r.engine.c_str(), r.counterexample.c_str(),
                      ir::print_wq(input).c_str(), ir::print_wq(output).c_str());
         std::abort();
     }

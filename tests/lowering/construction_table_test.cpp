@@ -5,7 +5,7 @@
 
 #include <fmt/format.h>
 
-#include "equivalence_helpers.h"
+#include "support/equivalence_helpers.h"
 #include "passes/pipeline.h"
 
 using namespace whittle;
@@ -33,7 +33,7 @@ Row measure(uint32_t n, uint32_t clean, uint32_t dirty, const std::string& targe
     passes::run_passes(toffolis, {"lower-controls"}, o);
     r.toffoli = ir::count_resources(toffolis).toffoli_count;
     ir::Circuit full = build();
-    o.target = target;
+    o.target = ir::parse_optional_target(target);
     o.allow_measurement = measured;
     // raw: the construction with every Toffoli in its 7-T form (no pair search after lowering).
     const std::vector<std::string> names =

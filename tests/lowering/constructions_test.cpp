@@ -2,7 +2,7 @@
 // work wires restored, and the published Toffoli counts.
 #include <doctest/doctest.h>
 
-#include "equivalence_helpers.h"
+#include "support/equivalence_helpers.h"
 #include "ir/classical_sim.h"
 #include "ir/error.h"
 #include "passes/lower_controls.h"
@@ -16,7 +16,7 @@ ir::Resources lower(ir::Circuit& c, passes::Metric m = passes::Metric::TCount, s
                     passes::PassResult* out = nullptr) {
     passes::PassOptions o;
     o.optimize_for = m;
-    o.target = target;
+    o.target = ir::parse_optional_target(target);
     passes::PassResult r = passes::lower_controls(c, o);
     ir::verify(c);
     if (out) *out = r;

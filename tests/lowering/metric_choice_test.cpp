@@ -4,7 +4,7 @@
 
 #include <bit>
 
-#include "equivalence_helpers.h"
+#include "support/equivalence_helpers.h"
 #include "lowering/control_lowerer.h"
 #include "lowering/mcx_constructions.h"
 #include "verify/equivalence.h"
@@ -25,7 +25,7 @@ struct Compiled {
 Compiled compile(const ir::Circuit& in, const std::string& target, passes::Metric m) {
     Compiled out{in, {}, {}};
     passes::PassOptions o;
-    o.target = target;
+    o.target = ir::parse_optional_target(target);
     o.optimize_for = m;
     out.records = passes::run_passes(out.c, passes::pipeline_for(o), o);
     out.res = ir::count_resources(out.c);

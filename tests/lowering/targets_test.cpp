@@ -1,7 +1,7 @@
 // Every target: the output holds only that target's gates and equals the input (hand-written and random circuits).
 #include <doctest/doctest.h>
 
-#include "equivalence_helpers.h"
+#include "support/equivalence_helpers.h"
 #include "ir/classical_sim.h"
 #include "ir/error.h"
 #include "ir/resources.h"
@@ -16,7 +16,7 @@ namespace {
 
 passes::PassOptions for_target(lowering::Target t, bool measure = false) {
     passes::PassOptions o;
-    o.target = lowering::target_name(t);
+    o.target = ir::parse_optional_target(lowering::target_name(t));
     o.allow_measurement = measure;
     return o;
 }

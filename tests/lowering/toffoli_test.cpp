@@ -1,7 +1,7 @@
 // Toffoli/CCZ forms and lower-toffoli: exactness, the published T/CNOT counts, pair checks, measured erase.
 #include <doctest/doctest.h>
 
-#include "equivalence_helpers.h"
+#include "support/equivalence_helpers.h"
 #include "lowering/toffoli_forms.h"
 #include "passes/lower_controls.h"
 #include "passes/lower_toffoli.h"
@@ -42,7 +42,7 @@ passes::PassOptions options(bool measure = false, passes::Metric m = passes::Met
     passes::PassOptions o;
     o.allow_measurement = measure;
     o.optimize_for = m;
-    o.target = "clifford+t";
+    o.target = ir::parse_optional_target("clifford+t");
     return o;
 }
 

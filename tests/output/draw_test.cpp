@@ -6,7 +6,7 @@
 #include <set>
 #include <sstream>
 
-#include "harbor_circuits.h"
+#include "support/harbor_circuits.h"
 #include "output/draw.h"
 #include "output/draw_layout.h"
 

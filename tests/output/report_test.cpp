@@ -3,9 +3,9 @@
 
 #include <sstream>
 
-#include "harbor_circuits.h"
+#include "support/harbor_circuits.h"
 #include "ir/resources.h"
-#include "output/report.h"
+#include "output/compile_report.h"
 
 using namespace whittle;
 
@@ -45,7 +45,7 @@ TEST_CASE("compile report carries options, passes, constructions and the error t
     in.input = "crane.wq";
     in.source = &src;
     in.output = &out;
-    in.options.target = "clifford+t";
+    in.options.target = ir::parse_optional_target("clifford+t");
     in.options.level = 3;
     in.options.optimize_for = passes::Metric::TwoQubit;
     in.emit = "qasm2";

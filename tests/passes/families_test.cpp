@@ -139,7 +139,7 @@ namespace {
 ir::Circuit compile_o2(const ir::Circuit& in, int level = 2) {
     passes::PassOptions o;
     o.level = level;
-    o.target = "clifford+t";
+    o.target = ir::parse_optional_target("clifford+t");
     ir::Circuit c = in;
     passes::run_passes(c, passes::pipeline_for(o), o);
     return c;

@@ -17,7 +17,7 @@ TEST_CASE("every -O pipeline names registered passes; higher levels run at least
         for (const char* target : {"", "clifford+t"}) {
             passes::PassOptions o;
             o.level = level;
-            o.target = target;
+            o.target = ir::parse_optional_target(target);
             for (const std::string& n : passes::pipeline_for(o)) CHECK_MESSAGE(passes::find_pass(n), n);
         }
         passes::PassOptions o;
@@ -95,7 +95,7 @@ TEST_CASE("random Clifford+T circuits never get more T through -O2 and -O3 with 
     for (int i = 0; i < 200; ++i) {
         Circuit c = random_circuit(rng, ct);
         passes::PassOptions o;
-        o.target = "clifford+t";
+        o.target = ir::parse_optional_target("clifford+t");
         o.level = i % 4 == 3 ? 3 : 2;
         const uint64_t t0 = count_resources(c).t_count;
         Circuit once = c;
@@ -132,7 +132,7 @@ TEST_CASE("the runner's per-pass T and CNOT records equal a full resource count 
     for (int i = 0; i < 60; ++i) {
         Circuit c = random_circuit(rng, spec);
         passes::PassOptions o;
-        o.target = i % 2 ? "clifford+t" : "";
+        o.target = ir::parse_optional_target(i % 2 ? "clifford+t" : "");
         o.level = 2;
         // Run the pipeline one pass at a time, so the circuit after each pass can be counted in full.
         for (const std::string& name : passes::pipeline_for(o)) {

@@ -190,7 +190,7 @@ TEST_CASE("every registered pass preserves equivalence on random circuits") {
             const ir::Circuit before = random_well_formed(rng, o);
             ir::Circuit after = before;
             passes::PassOptions po;
-            po.target = targets[size_t(round) % targets.size()];
+            po.target = ir::parse_optional_target(targets[size_t(round) % targets.size()]);
             po.allow_measurement = round % 3 == 0;
             try {
                 pass.run(after, po);
@@ -201,7 +201,7 @@ TEST_CASE("every registered pass preserves equivalence on random circuits") {
             ir::verify(after);
             const passes::EquivResult r = passes::check_equivalence(before, after);
             INFO(fmt::format("pass {} round {} target '{}': {} by {} ({}): {}\nbefore:\n{}after:\n{}", pass.name, round,
-                             po.target, passes::verdict_name(r.verdict), r.engine, r.confidence, r.counterexample,
+                             ir::target_label(po.target), passes::verdict_name(r.verdict), r.engine, r.confidence, r.counterexample,
                              ir::print_wq(before), ir::print_wq(after)));
             CHECK(r.verdict != Verdict::NotEquivalent);
             if (r.verdict == Verdict::Inconclusive) ++inconclusive;
@@ -225,14 +225,14 @@ TEST_CASE("every -O pipeline preserves equivalence on random circuits") {
         ir::Circuit after = before;
         passes::PassOptions po;
         po.level = round % 4;
-        po.target = targets[size_t(round / 4) % targets.size()];
+        po.target = ir::parse_optional_target(targets[size_t(round / 4) % targets.size()]);
         try {
             passes::run_passes(after, passes::pipeline_for(po), po);
         } catch (const UserError&) {
             continue;
         }
         const passes::EquivResult r = passes::check_equivalence(before, after);
-        INFO(fmt::format("-O{} target '{}': {} by {}: {}\nbefore:\n{}after:\n{}", po.level, po.target,
+        INFO(fmt::format("-O{} target '{}': {} by {}: {}\nbefore:\n{}after:\n{}", po.level, ir::target_label(po.target),
                          passes::verdict_name(r.verdict), r.engine, r.counterexample, ir::print_wq(before),
                          ir::print_wq(after)));
         CHECK(r.verdict != Verdict::NotEquivalent);

@@ -33,6 +33,7 @@ with tempfile.TemporaryDirectory() as tmp:
     expected = [
         "bin/whittle",
         "include/whittle/whittle.h",
+        "include/whittle/compiler/compile.h",
         "include/whittle/ir/circuit.h",
         "include/whittle/frontend/load.h",
         "include/whittle/passes/pipeline.h",
@@ -54,9 +55,11 @@ with tempfile.TemporaryDirectory() as tmp:
             if f.endswith(".wq") and not os.path.exists(os.path.join(prefix, "share/whittle/stdlib", f)):
                 print("stdlib file not installed:", f)
                 ok = False
-    if os.path.exists(os.path.join(prefix, "include/whittle/cli")):
-        print("the CLI's private headers were installed")
-        ok = False
+    # Only the public headers (cmake/install.cmake): the library's own folders stay out.
+    for private in ("cli", "lowering", "synthesis", "verify", "passes/registry.h", "output/emit_qasm.h"):
+        if os.path.exists(os.path.join(prefix, "include/whittle", private)):
+            print("a private header or folder was installed:", private)
+            ok = False
     # The installed CLI runs.
     r = run([os.path.join(prefix, "bin/whittle"), "--version"])
     if "whittle" not in r.stdout:
@@ -72,5 +75,11 @@ with tempfile.TemporaryDirectory() as tmp:
     # The consumer's circuit: one Toffoli and one T (a pi/4 phase on one wire).
     if report["qubits"] != 3 or report["t_count"] != 1 or report["toffoli_count"] != 1 or report["gates"] != {"ccx": 1, "t": 1}:
         print("consumer report wrong:", report)
+        ok = False
+    # The one compile entry point, through the installed headers: the Toffoli is lowered to Clifford+T.
+    compiled = json.loads(r.stdout.splitlines()[2])
+    if compiled["target"] != "clifford+t" or compiled["toffoli_count"] != 0 or compiled["t_count"] == 0 \
+            or compiled["input_resources"]["toffoli_count"] != 1:
+        print("consumer compile report wrong:", compiled)
         ok = False
     sys.exit(0 if ok else 1)

@@ -1,7 +1,7 @@
 // Euler one-qubit synthesis, the KAK decomposition, two-qubit synthesis and the fuse-1q / resynth-2q passes.
 #include <doctest/doctest.h>
 
-#include "equivalence_helpers.h"
+#include "support/equivalence_helpers.h"
 #include "synthesis/euler.h"
 #include "synthesis/kak.h"
 #include "synthesis/two_qubit_synthesis.h"
@@ -234,7 +234,7 @@ TEST_CASE("resynth-2q on iswap+rz+rx: random two-qubit circuits come out with at
         }
         ir::Circuit ref = c;
         passes::PassOptions o;
-        o.target = "iswap+rz+rx";
+        o.target = ir::parse_optional_target("iswap+rz+rx");
         passes::resynth_2q(c, o);
         passes::fuse_1q(c, o);
         CHECK(ir::count_resources(c).gates["iswap"] <= 3);
@@ -256,7 +256,7 @@ TEST_CASE("resynth-2q: a random 60-gate two-qubit circuit comes out with at most
         c.ops.push_back(ir::Op::x(2, {ir::Lit::pos(1)}));  // a gate outside the block stays
         ir::Circuit ref = c;
         passes::PassOptions o;
-        o.target = "cx+rz+sx";
+        o.target = ir::parse_optional_target("cx+rz+sx");
         passes::resynth_2q(c, o);
         passes::fuse_1q(c, o);
         CHECK(ir::count_resources(c).cnot_count <= 4);
@@ -275,7 +275,7 @@ TEST_CASE("resynth-2q: a dressed CNOT becomes 1 CNOT; SWAP as three CNOTs stays 
              ir::Op::one(ir::OpKind::RZ, 1, ir::Angle::radians(1.1))};
     ir::Circuit ref = c;
     passes::PassOptions o;
-    o.target = "cx+rz+sx";
+    o.target = ir::parse_optional_target("cx+rz+sx");
     CHECK(passes::resynth_2q(c, o).changed);
     CHECK(ir::count_resources(c).cnot_count == 1);
     CHECK(ir::distance_up_to_phase(ir::circuit_unitary(ref), ir::circuit_unitary(c)) < 1e-10);
@@ -291,7 +291,7 @@ TEST_CASE("fuse-1q: runs fuse into at most the basis' Euler length; clifford+t s
     c.ops.push_back(ir::Op::x(1, {ir::Lit::pos(0)}));
     ir::Circuit ref = c;
     passes::PassOptions o;
-    o.target = "cx+rz+sx";
+    o.target = ir::parse_optional_target("cx+rz+sx");
     CHECK(passes::fuse_1q(c, o).changed);
     CHECK(c.ops.size() <= 6);
     CHECK(ir::distance_up_to_phase(ir::circuit_unitary(ref), ir::circuit_unitary(c)) < 1e-10);
@@ -300,7 +300,7 @@ TEST_CASE("fuse-1q: runs fuse into at most the basis' Euler length; clifford+t s
     auto tg = [](int e) { return ir::Op::phase(ir::Angle::pi_times(e, 4), {ir::Lit::pos(0)}); };
     t.ops = {tg(1), tg(1), ir::Op::one(ir::OpKind::H, 0), ir::Op::one(ir::OpKind::H, 0), tg(1), ir::Op::one(ir::OpKind::H, 0), tg(7)};
     ir::Circuit tref = t;
-    o.target = "clifford+t";
+    o.target = ir::parse_optional_target("clifford+t");
     CHECK(passes::fuse_1q(t, o).changed);
     CHECK(ir::count_resources(t).t_count <= 2);
     CHECK(ir::distance_up_to_phase(ir::circuit_unitary(tref), ir::circuit_unitary(t)) < 1e-12);

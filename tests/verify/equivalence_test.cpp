@@ -392,7 +392,7 @@ TEST_CASE("conditioned rotations, controlled or not, keep their meaning through 
         INFO("target " << target);
         passes::PassOptions po;
         po.level = 2;
-        po.target = target;
+        po.target = ir::parse_optional_target(target);
         po.allow_measurement = true;
         Circuit out = source;
         passes::run_passes(out, passes::pipeline_for(po), po);

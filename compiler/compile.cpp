@@ -1,0 +1,178 @@
+// The compile entry point: options check, ancilla contract, pipeline, run, final check, emit, report.
+#include "compiler/compile.h"
+
+#include <algorithm>
+#include <chrono>
+#include <ostream>
+
+#include <fmt/format.h>
+#include <fmt/ranges.h>
+
+#include "compiler/final_check.h"
+#include "frontend/load.h"
+#include "ir/printer.h"
+#include "lowering/targets.h"
+#include "output/compile_report.h"
+#include "output/emit_qasm.h"
+#include "passes/registry.h"
+#include "verify/ancilla_contract.h"
+
+namespace whittle::compiler {
+namespace {
+
+/// The time the input's ancilla contract check may take.
+constexpr double kContractSeconds = 1.0;
+
+/// The --epsilon range: the rotation synthesis is bounded in time and memory over all of it
+/// (README "Rotations"; tests/cli/compile_options_test.cpp measures both ends).
+constexpr double kMinEpsilon = 1e-15;
+
+std::string emit_text(const ir::Circuit& c, Emit e) {
+    switch (e) {
+    case Emit::None: return "";
+    case Emit::Wq: return ir::print_wq(c);
+    case Emit::Qasm2: return lowering::emit_qasm2(c);
+    case Emit::Qasm3: return lowering::emit_qasm3(c);
+    }
+    return "";
+}
+
+}  // namespace
+
+const char* emit_name(Emit e) {
+    switch (e) {
+    case Emit::None: return "";
+    case Emit::Wq: return "wq";
+    case Emit::Qasm2: return "qasm2";
+    case Emit::Qasm3: return "qasm3";
+    }
+    return "";
+}
+
+passes::PassOptions pass_options(const CompileOptions& o) {
+    passes::PassOptions po;
+    po.target = o.target;
+    po.level = o.level;
+    po.optimize_for = o.optimize_for;
+    po.allow_measurement = o.allow_measurement;
+    po.extra_ancillas = o.extra_ancillas;
+    po.epsilon = o.epsilon;
+    return po;
+}
+
+std::vector<std::string> pass_names(const CompileOptions& o) {
+    return o.passes.empty() ? passes::pipeline_for(pass_options(o)) : passes::parse_pass_list(o.passes);
+}
+
+void check_options(const CompileOptions& o) {
+    if (!(o.epsilon >= kMinEpsilon && o.epsilon < 1))
+        throw UserError(fmt::format("--epsilon must lie in [1e-15, 1), got {}", o.epsilon));
+    const passes::PassOptions po = pass_options(o);
+    const std::vector<std::string> names = pass_names(o);
+    if (!o.passes.empty() && o.target && std::find(names.begin(), names.end(), "to-target") == names.end())
+        throw UserError(fmt::format("--passes runs only the passes listed, and '{}' has no to-target: the output would not be "
+                                    "in --target '{}'; list the lowering passes too (-O{} uses: {}) or leave out --passes",
+                                    o.passes, ir::target_name(*o.target), o.level, fmt::join(passes::pipeline_for(po), ",")));
+    for (const std::string& d : o.dump_after) {
+        if (d == "all") continue;
+        if (!passes::find_pass(d)) throw UserError(fmt::format("--dump-after '{}' is not a pass (see --passes for the names)", d));
+        if (std::find(names.begin(), names.end(), d) == names.end())
+            throw UserError(fmt::format("--dump-after '{}': that pass does not run here (the passes are: {})", d, fmt::join(names, ",")));
+    }
+}
+
+CompileResult compile(ir::Circuit c, const CompileOptions& o) {
+    check_options(o);
+    const passes::PassOptions po = pass_options(o);
+    const std::vector<std::string> names = pass_names(o);
+    passes::PipelineHooks hooks;
+    if (!o.dump_after.empty() && o.log) {
+        hooks.after_pass = [&](const std::string& name, const ir::Circuit& now) {
+            for (const std::string& d : o.dump_after)
+                if (d == name || d == "all") *o.log << "# after " << name << "\n" << ir::print_wq(now);
+        };
+    }
+    // The input as read, kept for the report's "input_resources" and for the final check.
+    ir::Circuit source;
+    const bool final_check = o.check && c.ops.size() <= kFinalCheckMaxOps;
+    // The lowering takes a declared ancilla for a clean work wire wherever the program does not
+    // use it, so a program that leaves one dirty would compile into a wrong circuit: refuse it.
+    std::string contract_note;
+    if (final_check &&
+        std::any_of(c.qubits.begin(), c.qubits.end(), [](const ir::Qubit& q) { return q.role == ir::Role::Clean; })) {
+        const passes::AncillaContract contract = passes::check_ancilla_contract(c, kContractSeconds);
+        if (contract.status == passes::AncillaContract::Status::Violated) throw passes::contract_violation(c, contract);
+        if (contract.status == passes::AncillaContract::Status::Undecided)
+            contract_note = fmt::format(" (ancillas not proven returned to |0>: {})", contract.method);
+    }
+    if (o.report || final_check) source = c;
+    const auto compile_start = std::chrono::steady_clock::now();
+    if (o.verify_pass) hooks.verify = o.verify_pass;
+    if (o.progress) hooks.progress = o.progress;
+    CompileResult r;
+    try {
+        r.records = passes::run_passes(c, names, po, hooks);
+    } catch (const PassCheckFailure& failure) {
+        if (o.passes_done) o.passes_done();
+        r.status = CompileStatus::PassCheckFailed;
+        r.failure = failure.what();
+        return r;
+    }
+    if (o.passes_done) o.passes_done();
+    if (!o.passes.empty() && o.target) {
+        // A hand-written list may end with a pass that leaves the target (the report would claim it).
+        for (const ir::Op& op : c.ops)
+            if (!lowering::in_target(op, *o.target))
+                throw UserError(fmt::format("--passes '{}' leaves {} outside --target '{}'; end the list with "
+                                            "to-target (and its cleanup passes)",
+                                            o.passes, ir::op_kind_name(op.kind), ir::target_name(*o.target)),
+                                op.loc);
+    }
+    const double compile_seconds =
+        std::chrono::duration<double>(std::chrono::steady_clock::now() - compile_start).count();
+    if (o.check) r.check_summary = fmt::format("not checked: the input has over {} ops", kFinalCheckMaxOps);
+    if (final_check) {
+        const FinalCheck check = check_final_output(source, c, compile_seconds);
+        if (check.verdict == passes::Verdict::NotEquivalent) {
+            r.status = CompileStatus::CheckFailed;
+            r.failure = check.failure;
+            return r;
+        }
+        r.check_summary = check.summary + contract_note;
+    }
+    if ((o.stats || o.time_passes) && o.log) {
+        for (const passes::PassRecord& rec : r.records) {
+            std::string line = fmt::format("{:<18} ops {:>8} -> {:<8} T {:>6} -> {:<6} CNOT {:>6} -> {:<6}",
+                                           rec.name, rec.ops_before, rec.ops_after, rec.t_before, rec.t_after,
+                                           rec.cnot_before, rec.cnot_after);
+            if (o.time_passes)
+                line += fmt::format(" {:9.3f} ms  peak {:>6} MiB", rec.seconds * 1e3, rec.peak_rss_kib / 1024);
+            if (o.stats)
+                for (const auto& [k, v] : rec.result.stats) line += fmt::format(" {}={}", k, v);
+            *o.log << line << "\n";
+        }
+    }
+    r.text = emit_text(c, o.emit);
+    if (o.report) {
+        lowering::CompileReportInput ri;
+        ri.input = o.input_name;
+        ri.source = &source;
+        ri.output = &c;
+        ri.options = po;
+        ri.explicit_passes = o.passes;
+        ri.emit = emit_name(o.emit);
+        ri.verify = bool(o.verify_pass);
+        ri.records = r.records;
+        r.report = lowering::compile_report(ri);
+    }
+    r.circuit = std::move(c);
+    return r;
+}
+
+CompileResult compile_file(const std::string& path, const CompileOptions& o, frontend::SourceManager& sm) {
+    frontend::LoadOptions lo;
+    lo.include_dirs = o.include_dirs;
+    return compile(frontend::load_file(path, sm, lo), o);
+}
+
+}  // namespace whittle::compiler

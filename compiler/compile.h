@@ -1,0 +1,107 @@
+// The one compile entry point: a program and typed options in, the compiled circuit, its text, the
+// report and the check's verdict out. The CLI, the Python module, `whittle demo` and the benchmarks call it.
+#pragma once
+
+#include <cstdint>
+#include <functional>
+#include <iosfwd>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "ir/circuit.h"
+#include "ir/target.h"
+#include "output/report.h"
+#include "passes/pipeline.h"
+
+namespace whittle::frontend {
+class SourceManager;
+}
+
+namespace whittle::compiler {
+
+/// The output text's format; None emits nothing (the caller only wants the circuit or the report).
+enum class Emit : uint8_t { None, Wq, Qasm2, Qasm3 };
+/// "", "wq", "qasm2", "qasm3" (the report's "emit" field).
+const char* emit_name(Emit e);
+
+/// Everything a compile can be asked. A new option is a field here, read in compile.cpp.
+struct CompileOptions {
+    std::optional<ir::Target> target;  ///< the native gate set; none = stay high level
+    int level = 2;                     ///< -O level
+    ir::Metric optimize_for = ir::Metric::TCount;
+    bool allow_measurement = false;    ///< measurement-based uncompute and feed-forward allowed
+    uint32_t extra_ancillas = 0;       ///< fresh clean wires the lowering may add
+    double epsilon = 1e-10;            ///< per-rotation approximation error (clifford+t), in [1e-15, 1)
+    std::string passes;                ///< run exactly this comma-separated list ("" = the -O pipeline)
+    std::vector<std::string> dump_after;  ///< print the circuit after these passes ("all": every one)
+    bool stats = false;                   ///< one line per pass with its changes and counters
+    bool time_passes = false;             ///< one line per pass with its time and peak memory
+    /// Where the dump_after, stats and time_passes text goes, as it happens (none: nowhere).
+    std::ostream* log = nullptr;
+    /// Check the output against the input (within max(2 s, 10% of the compile time), inputs up to
+    /// kFinalCheckMaxOps ops) and refuse an input whose declared ancillas are left dirty.
+    bool check = true;
+    Emit emit = Emit::None;
+    bool report = false;               ///< build the JSON report (CompileResult::report)
+    std::string input_name;            ///< the input as the user named it (report, messages)
+    std::vector<std::string> include_dirs;  ///< extra folders searched by `use` (compile_file)
+
+    /// Per-pass translation validation (PipelineHooks::verify): returns the engine that decided,
+    /// throws PassCheckFailure for a pass that changed the meaning. Unset = not checked per pass.
+    std::function<std::string(const std::string&, const ir::Circuit&, const ir::Circuit&)> verify_pass;
+    /// Progress: (pass name, index, count), and once when the passes are done.
+    std::function<void(const std::string&, size_t, size_t)> progress;
+    std::function<void()> passes_done;
+};
+
+/// Thrown by a `verify_pass` hook: a pass produced a circuit that is not equivalent to its input.
+/// The message names the pass and the counterexample; compile() returns it as PassCheckFailed.
+class PassCheckFailure : public std::runtime_error {
+public:
+    using std::runtime_error::runtime_error;
+};
+
+enum class CompileStatus : uint8_t {
+    Ok,
+    PassCheckFailed,   ///< verify_pass refused a pass (CompileResult::failure)
+    CheckFailed,       ///< the output is not equivalent to the input (CompileResult::failure)
+};
+
+struct CompileResult {
+    CompileStatus status = CompileStatus::Ok;
+    std::string failure;        ///< the message when status is not Ok (ends with a newline)
+    ir::Circuit circuit;        ///< the compiled circuit
+    std::string text;           ///< `circuit` in CompileOptions::emit's format
+    lowering::Json report;      ///< the compile report when CompileOptions::report (else null)
+    std::vector<passes::PassRecord> records;  ///< one per pass run
+    /// The check's verdict: "verified exact (path-sum) in 0.02 s", "not checked: ...", with a note
+    /// when the ancillas were not proven returned; "" when CompileOptions::check is off.
+    std::string check_summary;
+};
+
+/// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are
+/// reported as not checked (the copy and the check would cost more than the compile's budget).
+inline constexpr size_t kFinalCheckMaxOps = size_t(1) << 18;
+
+/// The pass options these compile options give.
+passes::PassOptions pass_options(const CompileOptions& o);
+
+/// The pass names a compile with these options runs.
+std::vector<std::string> pass_names(const CompileOptions& o);
+
+/// Refuses option values that would be ignored or would make the output or the report say
+/// something that is not so (UserError). compile() calls it; a driver may call it before reading
+/// any input.
+void check_options(const CompileOptions& o);
+
+/// Compiles `input`. UserError for bad options, an input that leaves a declared ancilla dirty, or
+/// a --passes list that leaves the target; a failed check is a status, not an exception.
+CompileResult compile(ir::Circuit input, const CompileOptions& o);
+
+/// Reads `path` (.wq or .qasm, `use` searched in o.include_dirs; sources go into `sm` for
+/// messages) and compiles it.
+CompileResult compile_file(const std::string& path, const CompileOptions& o, frontend::SourceManager& sm);
+
+}  // namespace whittle::compiler
