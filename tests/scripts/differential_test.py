@@ -21,7 +21,7 @@ input states on the data wires, with every clean work wire (declared or added by
 work wires back at |0> (up to a global phase per branch; a unitary output has one branch).
 
 WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number of circuits (default
-120); a failure prints the .wq input, the configuration and a command that reproduces it.
+80); a failure prints the .wq input, the configuration and a command that reproduces it.
 """
 import math
 import os
@@ -36,7 +36,7 @@ import numpy as np
 
 WHITTLE = os.environ.get("WHITTLE_BIN", "whittle")
 SEED = int(os.environ.get("WHITTLE_DIFF_SEED", "1"))
-CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "120"))
+CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "80"))
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
 STATES = 3  # random input states per check
