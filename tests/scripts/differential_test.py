@@ -217,6 +217,20 @@ def when_block(rng, prog, data):
         prog.ops.append(("u1", ry(math.pi / 4), t, [(c, pol)]))
 
 
+def reported_programs():
+    """The two inputs of the trust issue that were compiled wrong with exit 0 (as .wq): a Toffoli pair
+    whose uncompute writes the controls the other way round, and a Toffoli before a 3-control X on
+    its target (the construction's own Toffolis then form such a pair)."""
+    a = Program(4, 0, False)
+    a.mcx(2, [(0, True), (1, True)])
+    a.mcx(3, [(2, True)])
+    a.mcx(2, [(1, True), (0, True)])
+    b = Program(7, 0, False)
+    b.mcx(5, [(2, True), (4, True)])
+    b.mcx(5, [(0, True), (4, True), (1, True)])
+    return [a, b]
+
+
 def random_program(rng, classical):
     """A random program; a classical one (X-type ops only) is one the nct target can take too."""
     n_data = rng.randint(4, 7)
@@ -503,6 +517,11 @@ def main():
     rng_np = np.random.default_rng(SEED)
     tmp = tempfile.mkdtemp(prefix="whittle-diff-")
     progs = []
+    for i, prog in enumerate(reported_programs()):
+        path = os.path.join(tmp, f"reported{i}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
     for i in range(CIRCUITS):
         # One in four is classical (X-type only), so the nct target has inputs too.
         prog = random_program(rng, classical=i % 4 == 3)
