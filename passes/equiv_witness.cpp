@@ -14,7 +14,7 @@ constexpr size_t kMaxTerms = size_t(1) << 14;
 /// Differences below this are not witnesses: a circuit with approximated rotations (Ross–Selinger,
 /// within --epsilon each) is exactly different from its input but this close to it, which the
 /// numerical engines accept (the unitary engine's tolerance is 1e-7).
-constexpr double kApproximationTolerance = 1e-6;
+constexpr double kBaseApproximationTolerance = 1e-6;
 
 std::string describe(const Aligned& al, const ExactBasisState& s) {
     std::vector<uint8_t> bits(al.num_wires());
@@ -47,6 +47,7 @@ EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const De
                            int max_inputs) {
     if (!ExactBasisState::supports(al.a) || !ExactBasisState::supports(al.b)) return std::nullopt;
     const Deadline mine(seconds);
+    const double kApproximationTolerance = kBaseApproximationTolerance + 4 * opts.approximation_bound;
     std::mt19937_64 rng(opts.seed ^ 0x9e3779b97f4a7c15ull);
     std::vector<uint8_t> in(al.num_wires(), 0), ref_in;
     bool have_ref = false;

@@ -217,7 +217,9 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
         std::string verdict = a.no_check ? "not checked (--no-check)"
                                          : fmt::format("not checked: the input has over {} ops", kFinalCheckMaxOps);
         if (final_check) {
-            const FinalCheck check = check_final_output(source, c, compile_seconds);
+            double approximation = 0;
+            for (const passes::PassRecord& r : records) approximation += r.result.error_bound;
+            const FinalCheck check = check_final_output(source, c, compile_seconds, approximation);
             if (check.verdict == passes::Verdict::NotEquivalent) {
                 err << check.failure;
                 return kCheckFailed;

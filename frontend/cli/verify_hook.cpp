@@ -43,8 +43,10 @@ std::string PassVerifier::operator()(const std::string& pass, const ir::Circuit&
 
 namespace whittle::cli {
 
-FinalCheck check_final_output(const ir::Circuit& source, const ir::Circuit& output, double compile_seconds) {
+FinalCheck check_final_output(const ir::Circuit& source, const ir::Circuit& output, double compile_seconds,
+                              double approximation_bound) {
     passes::EquivOptions opts;
+    opts.approximation_bound = approximation_bound;
     opts.time_budget_seconds = std::max(2.0, 0.1 * compile_seconds);
     const auto start = std::chrono::steady_clock::now();
     const passes::EquivResult r = passes::check_equivalence(source, output, opts);
@@ -55,7 +57,10 @@ FinalCheck check_final_output(const ir::Circuit& source, const ir::Circuit& outp
     const std::string kind = r.confidence.substr(0, r.confidence.find(' '));
     switch (r.verdict) {
     case passes::Verdict::Equivalent:
-        f.summary = fmt::format("verified {} ({}) in {:.2f} s", kind, r.engine, seconds);
+        f.summary = approximation_bound > 0
+                        ? fmt::format("verified {} ({}) up to the approximation bound {:.2g} in {:.2f} s", kind, r.engine,
+                                      approximation_bound, seconds)
+                        : fmt::format("verified {} ({}) in {:.2f} s", kind, r.engine, seconds);
         break;
     case passes::Verdict::NotEquivalent:
         f.summary = fmt::format("check failed ({})", r.engine);
