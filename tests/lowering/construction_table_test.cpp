@@ -1,4 +1,4 @@
-// Prints the README table of the multi-control constructions for n = 3..10 and checks the published counts.
+// Prints the table of the multi-control constructions in docs/lowering.md for n = 3..10 and checks the published counts.
 #include <doctest/doctest.h>
 
 #include <iostream>
@@ -53,7 +53,7 @@ Row measure(uint32_t n, uint32_t clean, uint32_t dirty, const std::string& targe
 
 }  // namespace
 
-TEST_CASE("construction table, n = 3..10 (README)") {
+TEST_CASE("construction table, n = 3..10 (docs/lowering.md)") {
     std::cout << "| n | construction | Toffoli | T | CNOT | qubits |\n|---|---|---|---|---|---|\n";
     for (uint32_t n = 3; n <= 10; ++n) {
         const Row vc = measure(n, n - 2, 0, "clifford+t", false);
