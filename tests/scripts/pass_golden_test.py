@@ -16,7 +16,7 @@ import subprocess
 import sys
 import tempfile
 
-BIN = os.environ["WHITTLE_BIN"]
+BIN = os.path.abspath(os.environ["WHITTLE_BIN"])
 SRC = os.environ["WHITTLE_SOURCE_DIR"]
 GOLDEN_DIR = os.path.join(SRC, "tests", "golden", "passes")
 RUN = re.compile(r"^#\s*run:\s*(.*?)\s*$")
