@@ -290,7 +290,7 @@ EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline
 }  // namespace
 
 EngineResult check_simulate(const Aligned& al, const EquivOptions& opts, const Deadline& dl) {
-    if (al.num_wires() > kSimulateWires) return std::nullopt;
+    if (al.num_wires() > std::min<uint32_t>(kSimulateWires, opts.max_simulated_wires)) return std::nullopt;
     if (nonunitary(al.a) || nonunitary(al.b)) return branches(al, opts, dl);
     if (al.num_wires() <= kUnitaryWires) return full_unitary(al, opts, dl);
     return random_states(al, opts, dl);
