@@ -287,4 +287,17 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     });
 }
 
+void add_passes_command(CLI::App& app, int& exit_code) {
+    CLI::App* cmd = app.add_subcommand("passes", "list the passes `compile --passes` can run: name, stage, what it does");
+    cmd->callback([&exit_code]() {
+        for (const passes::PassInfo& p : passes::all_passes()) {
+            const char* stage = p.stage == passes::Stage::HighLevel ? "high-level"
+                                : p.stage == passes::Stage::Lowering ? "lowering"
+                                                                     : "low-level";
+            std::cout << fmt::format("{:<16} {:<11} {}\n", p.name, stage, p.summary);
+        }
+        exit_code = kOk;
+    });
+}
+
 }  // namespace whittle::cli

@@ -10,6 +10,7 @@ void add_count_command(CLI::App& app, int& exit_code);
 void add_equiv_command(CLI::App& app, int& exit_code);
 void add_draw_command(CLI::App& app, int& exit_code);
 void add_demo_command(CLI::App& app, int& exit_code);
+void add_passes_command(CLI::App& app, int& exit_code);  // lists the registered passes
 void add_matrix_command(CLI::App& app, int& exit_code);  // hidden testing aid
 
 }  // namespace whittle::cli

@@ -1,4 +1,4 @@
-// whittle's command line: compile, count, equiv, draw, demo.
+// whittle's command line: compile, count, equiv, draw, demo, passes.
 #include <cstdio>
 #include <iostream>
 
@@ -18,6 +18,7 @@ int main(int argc, char** argv) {
     whittle::cli::add_equiv_command(app, exit_code);
     whittle::cli::add_draw_command(app, exit_code);
     whittle::cli::add_demo_command(app, exit_code);
+    whittle::cli::add_passes_command(app, exit_code);
     whittle::cli::add_matrix_command(app, exit_code);
     try {
         app.parse(argc, argv);

@@ -132,7 +132,9 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
         std::chrono::duration<double>(std::chrono::steady_clock::now() - compile_start).count();
     if (o.check) r.check_summary = fmt::format("not checked: the input has over {} ops", kFinalCheckMaxOps);
     if (final_check) {
-        const FinalCheck check = check_final_output(source, c, compile_seconds);
+        double approximation = 0;
+        for (const passes::PassRecord& rec : r.records) approximation += rec.result.error_bound;
+        const FinalCheck check = check_final_output(source, c, compile_seconds, approximation);
         if (check.verdict == passes::Verdict::NotEquivalent) {
             r.status = CompileStatus::CheckFailed;
             r.failure = check.failure;

@@ -15,7 +15,9 @@ struct FinalCheck {
 };
 
 /// Checks `output` against `source` within max(2 s, 10% of `compile_seconds`): the exact engines
-/// first, the probabilistic ones (labelled so) when no exact one applies.
-FinalCheck check_final_output(const ir::Circuit& source, const ir::Circuit& output, double compile_seconds);
+/// first, the probabilistic ones (labelled so) when no exact one applies. `approximation_bound` is
+/// the compile's total rotation-approximation error (the passes' error_bound summed).
+FinalCheck check_final_output(const ir::Circuit& source, const ir::Circuit& output, double compile_seconds,
+                              double approximation_bound);
 
 }  // namespace whittle::compiler

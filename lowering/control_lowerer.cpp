@@ -231,7 +231,7 @@ void ControlLowerer::mcx_construct(const ir::LitVec& controls, uint32_t target, 
     std::vector<Candidate> cands;
     if (clean.size() == n - 2) {
         const std::string detail = fmt::format("{} clean wires", clean.size());
-        cands.push_back({"v-chain", detail, [=, this] {
+        cands.push_back({"clean-ladder", detail, [=, this] {
                              std::vector<uint32_t> w = take_clean(n - 2, busy);
                              mcx_v_chain(*this, controls, target, w);
                              release_clean(w);
@@ -242,21 +242,21 @@ void ControlLowerer::mcx_construct(const ir::LitVec& controls, uint32_t target, 
                              release_clean(w);
                          }});
     } else if (!clean.empty()) {
-        cands.push_back({"partial-v-chain", fmt::format("{} clean wires", clean.size()), [=, this] {
+        cands.push_back({"partial-clean-ladder", fmt::format("{} clean wires", clean.size()), [=, this] {
                              std::vector<uint32_t> w = take_clean(clean.size(), busy);
                              mcx_v_chain(*this, controls, target, w);
                              release_clean(w);
                          }});
     }
     if (dirty.size() == n - 2)
-        cands.push_back({"barenco-dirty", fmt::format("Lemma 7.2, {} borrowed wires", dirty.size()),
+        cands.push_back({"borrowed-ladder", fmt::format("Lemma 7.2, {} borrowed wires", dirty.size()),
                          [=, this] { mcx_barenco_dirty(*this, controls, target, dirty); }});
     if (!dirty.empty())
         cands.push_back({"one-wire-split", fmt::format("Lemma 7.3, borrowed {}", c_.wire_name(dirty[0])),
                          [=, this] { mcx_one_wire_split(*this, controls, target, dirty[0]); }});
     if (!classical_only_) {
         if (cands.empty())
-            cands.push_back({"no-ancilla", "Lemma 7.5 sqrt(X) recursion", [=, this] { mcx_no_ancilla(*this, controls, target); }});
+            cands.push_back({"no-work-wire", "Lemma 7.5, controlled sqrt(X) steps", [=, this] { mcx_no_ancilla(*this, controls, target); }});
         if (n + 1 <= kMaxParityNetworkLiterals)
             cands.push_back({"phase-polynomial", fmt::format("H, {}-literal parity network, H", n + 1),
                              [=, this] { mcx_parity_network(*this, controls, target); }});

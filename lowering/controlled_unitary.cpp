@@ -107,7 +107,7 @@ void ControlLowerer::mc_phase(const LitVec& lits, Angle a) {
                          }});
     }
     // e^{ia*A*l} = e^{i(a/2)A} * Lambda_A(Rz(+-a)) on the last wire; Lambda_A(Rz(f)) = Rz(f/2) MCX Rz(-f/2) MCX.
-    cands.push_back({"phase-recursion", "Barenco et al. Lemma 7.9 form", [=, this] {
+    cands.push_back({"phase-halving", "Barenco et al. Lemma 7.9 form", [=, this] {
                          // One half h (2h = a mod 2*pi) used throughout: halving -a separately could differ by pi.
                          const Angle h = a.divided_by(2);
                          mc_phase(rest, h);

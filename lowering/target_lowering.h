@@ -7,8 +7,6 @@
 
 namespace whittle::lowering {
 
-/// Appends `op` rewritten into clifford+t gates (H S Sdg T Tdg X Y Z CNOT, measurement and
-/// feed-forward). Angles must be exact multiples of pi/4: UserError naming the op otherwise.
 /// The error allowance for rotations that are not multiples of pi/4 (Ross-Selinger approximation),
 /// and what the approximations used of it.
 struct RotationBudget {
@@ -17,6 +15,10 @@ struct RotationBudget {
     int approximated = 0;     ///< rotations approximated
 };
 
+/// Appends `op` rewritten into clifford+t gates (H S Sdg T Tdg X Y Z CNOT, measurement and
+/// feed-forward). Multiples of pi/4 become exact words; other angles are approximated within
+/// budget.epsilon and their bounds added to the budget. UserError naming the op when it has no
+/// clifford+t form (an op still controlled beyond CNOT/Toffoli: lower-controls did not run).
 void to_clifford_t(const ir::Op& op, OpSink& s, const ir::Circuit& c, RotationBudget& budget);
 
 /// Appends `op` as NOT/CNOT/Toffoli with positive controls; UserError for anything non-classical.

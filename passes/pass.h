@@ -29,7 +29,7 @@ struct PassOptions {
 /// "constructions" (docs/report-schema.md). Lowering passes push one per op they rewrite.
 struct Construction {
     std::string op;          ///< the op as it read before lowering (ir::print_op), e.g. "flag ^= a[0] & a[1] & a[2]"
-    std::string method;      ///< the construction's name, e.g. "clean-v-chain", "toffoli-7t", "temporary-and"
+    std::string method;      ///< the construction's name, e.g. "clean-ladder", "toffoli-7t", "temporary-and"
     std::string reason;      ///< why it won, e.g. "2 clean wires free: w[0], w[1]" ("" = the only choice)
     ir::SourceLoc loc;       ///< where the op came from (line 0 = compiler-made)
     int64_t t_count = -1;    ///< T gates it cost (-1 = not counted)
@@ -53,7 +53,7 @@ enum class Stage : uint8_t { HighLevel, Lowering, LowLevel };
 
 struct PassInfo {
     const char* name;     ///< the name used by --passes and --dump-after
-    const char* summary;  ///< one line for --help and the report
+    const char* summary;  ///< one line for `whittle passes`
     Stage stage;
     PassFn run;
 };

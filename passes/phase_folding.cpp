@@ -224,7 +224,7 @@ private:
     void fresh(uint32_t w) { vals_[w] = Poly{var_monomial(next_var_++)}; }
 
     /// The product a * b, or false when it would pass `cap` monomials (the size cap that keeps folding
-    /// linear). Same result and same refusals as the Anf product under the same cap. The monomial
+    /// linear). Same result and same refusals as the equivalence checker's Anf product (anf.h) under the same cap. The monomial
     /// products are formed in a scratch arena and paired off there (x ^ x = 0); only a product that
     /// passes the cap is interned, so refused products (most of the large ones) leave no trace.
     bool times(const Poly& a, const Poly& b, size_t cap, Poly& out) {

@@ -28,8 +28,9 @@ struct FoldSettings {
 
 /// Phase folding (Amy, Maslov, Mosca 2014, arXiv:1303.2042; on the lowered circuit the rotation
 /// merging of Nam, Ross, Su, Childs, Maslov 2018, arXiv:1710.07345), generalized to AND terms.
-/// Every wire's value is a Boolean polynomial (verify/anf.h) over the input variables and fresh path
-/// variables, which H, every other non-classical op, measurement and conditioned ops introduce
+/// Every wire's value is a Boolean polynomial (a sorted list of interned monomial ids, sequence_table.h)
+/// over the input variables and fresh path variables, which H, every other non-classical op,
+/// measurement and conditioned ops introduce
 /// (sum-over-paths reading: each diagonal op multiplies each path's amplitude by e^{i t f}, where
 /// f is its polynomial, so angles may move between ops whose polynomials are equal). X-type ops
 /// update the polynomials (t ^= AND of literals); Phase, Parity and uncontrolled RZ ops are terms

@@ -39,7 +39,7 @@ const std::vector<PassInfo>& all_passes() {
         {"plan-ancillas", "report the clean and borrowable wires free at each multi-controlled op", Stage::HighLevel,
          plan_ancillas},
         // Lowering steps.
-        {"lower-controls", "multi-controlled ops to Toffolis by V-chain, Barenco and ancilla-free constructions",
+        {"lower-controls", "multi-controlled ops to Toffolis: clean-wire ladders, borrowed-wire ladders, no-work-wire forms",
          Stage::Lowering, lower_controls},
         {"lower-toffoli", "Toffoli/CCZ to Clifford+T (7-T, T-depth-3, relative-phase, temporary AND)",
          Stage::Lowering, lower_toffoli},

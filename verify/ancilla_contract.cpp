@@ -9,6 +9,7 @@
 #include <fmt/format.h>
 
 #include "ir/statevector.h"
+#include "verify/equiv_engines.h"
 #include "verify/exact_basis.h"
 #include "verify/path_sum.h"
 
@@ -49,19 +50,6 @@ AncillaContract decided_ok(std::string method) {
     AncillaContract r;
     r.method = std::move(method);
     return r;
-}
-
-bool classical_phase_op(const ir::Op& op) {
-    switch (op.kind) {
-    case ir::OpKind::X:
-    case ir::OpKind::Swap:
-    case ir::OpKind::Barrier:
-    case ir::OpKind::Phase:
-    case ir::OpKind::Parity:
-    case ir::OpKind::RZ:
-    case ir::OpKind::Y: return !op.is_conditioned() && PathSum::supports(op);
-    default: return false;
-    }
 }
 
 /// From a path sum: every clean output the constant 0 (ok), or one that depends on inputs only and
@@ -135,7 +123,7 @@ AncillaContract check_ancilla_contract(const ir::Circuit& c, double seconds) {
     }
 
     // X-type ops and phases: each clean wire's output is a Boolean polynomial of the inputs.
-    if (std::all_of(c.ops.begin(), c.ops.end(), classical_phase_op)) {
+    if (std::all_of(c.ops.begin(), c.ops.end(), equiv::in_phase_class)) {
         try {
             PathSum ps(n, clean, false);
             bool built = true;

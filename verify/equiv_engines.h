@@ -52,6 +52,9 @@ constexpr uint32_t kBitParallelInputs = 22;
 
 /// Engine 2: X-type ops plus diagonal phases (Phase, Parity, RZ, Y) with exact angles.
 EngineResult check_phase(const Aligned& al, const EquivOptions& opts, const Deadline& dl);
+/// True for the ops of the phase engines' class: unconditioned X-type ops and diagonal phases with
+/// exact angles (the ancilla contract check decides the same class exactly).
+bool in_phase_class(const ir::Op& op);
 
 /// Engine 3: path sums (see path_sum.h).
 EngineResult check_path_sum(const Aligned& al, const EquivOptions& opts, const Deadline& dl);

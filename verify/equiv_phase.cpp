@@ -9,9 +9,8 @@
 #include "verify/path_sum.h"
 
 namespace whittle::passes::equiv {
-namespace {
 
-bool in_class(const ir::Op& op) {
+bool in_phase_class(const ir::Op& op) {
     switch (op.kind) {
     case ir::OpKind::X:
     case ir::OpKind::Swap:
@@ -24,9 +23,11 @@ bool in_class(const ir::Op& op) {
     }
 }
 
+namespace {
+
 bool in_class(const ir::Circuit& c) {
     for (const ir::Op& op : c.ops)
-        if (!in_class(op)) return false;
+        if (!in_phase_class(op)) return false;
     return true;
 }
 

@@ -11,7 +11,10 @@
 namespace whittle::passes::equiv {
 namespace {
 
-constexpr double kTolerance = 1e-7;
+constexpr double kBaseTolerance = 1e-7;
+
+/// The numerical tolerance: the base one plus room for the declared approximation.
+double tolerance_for(const EquivOptions& opts) { return kBaseTolerance + 4 * opts.approximation_bound; }
 constexpr uint32_t kEnumerateWires = 20;
 constexpr int kEnumerateMeasurements = 10;
 constexpr int kSampledBranches = 64;
@@ -59,7 +62,8 @@ ir::Complex phase_between(const Vec& a, const Vec& b) {
 
 std::mt19937_64 rng_for(const EquivOptions& opts) { return std::mt19937_64(opts.seed); }
 
-EquivResult full_unitary(const Aligned& al, const Deadline& dl) {
+EquivResult full_unitary(const Aligned& al, const EquivOptions& opts, const Deadline& dl) {
+    const double kTolerance = tolerance_for(opts);
     const uint32_t n = al.num_wires(), k = uint32_t(al.free.size());
     const uint64_t cols = uint64_t(1) << k;
     std::vector<Vec> ca, cb;
@@ -107,6 +111,7 @@ Vec random_input(const Aligned& al, std::mt19937_64& rng) {
 }
 
 EquivResult random_states(const Aligned& al, const EquivOptions& opts, const Deadline& dl) {
+    const double kTolerance = tolerance_for(opts);
     std::mt19937_64 rng = rng_for(opts);
     ir::Complex first_phase = 0;
     for (int s = 0; s < opts.random_states; ++s) {
@@ -219,6 +224,7 @@ bool for_each_branch(const Aligned& al, const ir::Circuit& c, const Vec& input, 
 }
 
 EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline& dl) {
+    const double kTolerance = tolerance_for(opts);
     const bool enumerate = al.num_wires() <= kEnumerateWires && count_measurements(al.a) <= kEnumerateMeasurements &&
                            count_measurements(al.b) <= kEnumerateMeasurements;
     std::mt19937_64 rng = rng_for(opts);
@@ -284,9 +290,9 @@ EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline
 }  // namespace
 
 EngineResult check_simulate(const Aligned& al, const EquivOptions& opts, const Deadline& dl) {
-    if (al.num_wires() > kSimulateWires) return std::nullopt;
+    if (al.num_wires() > std::min<uint32_t>(kSimulateWires, opts.max_simulated_wires)) return std::nullopt;
     if (nonunitary(al.a) || nonunitary(al.b)) return branches(al, opts, dl);
-    if (al.num_wires() <= kUnitaryWires) return full_unitary(al, dl);
+    if (al.num_wires() <= kUnitaryWires) return full_unitary(al, opts, dl);
     return random_states(al, opts, dl);
 }
 

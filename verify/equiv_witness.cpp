@@ -11,6 +11,10 @@ namespace whittle::passes::equiv {
 namespace {
 
 constexpr size_t kMaxTerms = size_t(1) << 14;
+/// Differences below this are not witnesses: a circuit with approximated rotations (Ross–Selinger,
+/// within --epsilon each) is exactly different from its input but this close to it, which the
+/// numerical engines accept (the unitary engine's tolerance is 1e-7).
+constexpr double kBaseApproximationTolerance = 1e-6;
 
 std::string describe(const Aligned& al, const ExactBasisState& s) {
     std::vector<uint8_t> bits(al.num_wires());
@@ -43,11 +47,12 @@ EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const De
                            int max_inputs) {
     if (!ExactBasisState::supports(al.a) || !ExactBasisState::supports(al.b)) return std::nullopt;
     const Deadline mine(seconds);
+    const double kApproximationTolerance = kBaseApproximationTolerance + 4 * opts.approximation_bound;
     std::mt19937_64 rng(opts.seed ^ 0x9e3779b97f4a7c15ull);
     std::vector<uint8_t> in(al.num_wires(), 0), ref_in;
     bool have_ref = false;
     Ratio ref;
-    int tried = 0, skipped = 0;
+    int tried = 0, skipped = 0, close = 0;
     for (; tried < max_inputs && !dl.expired() && !mine.expired(); ++tried) {
         // The first input is all zeros, the rest random over the wires whose input varies.
         for (uint32_t w : al.free) in[w] = tried == 0 ? 0 : uint8_t(rng() & 1);
@@ -61,6 +66,10 @@ EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const De
         for (size_t t = 1; proportional && t < sa.size(); ++t)
             proportional = ExactBasisState::product(sa.value(t), sb.value(0)) ==
                            ExactBasisState::product(sa.value(0), sb.value(t));
+        if (!proportional && sa.distance_up_to_phase(sb) < kApproximationTolerance) {
+            ++close;
+            continue;
+        }
         if (!proportional)
             return not_equivalent(name::kWitness, conf,
                                   fmt::format("input {}: first circuit gives {}, second gives {}", format_basis(al, in),
@@ -74,6 +83,10 @@ EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const De
         }
         // num/den == ref.num/ref.den, exactly
         if (ExactBasisState::product(r.num, ref.den) == ExactBasisState::product(ref.num, r.den)) continue;
+        if (std::abs(std::arg(r.approx / ref.approx)) < kApproximationTolerance) {
+            ++close;
+            continue;
+        }
         return not_equivalent(name::kWitness,
                               "exact (two basis inputs get different relative phases; exact arithmetic in Z[w]/sqrt2^k)",
                               fmt::format("input {} against input {}: the relative phase differs by {}",
@@ -81,7 +94,9 @@ EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const De
                                           angle_text(r.approx / ref.approx)));
     }
     return inconclusive(name::kWitness,
-                        fmt::format("no witness among {} basis inputs{}", tried - skipped,
+                        fmt::format("no witness among {} basis inputs{}{}", tried - skipped,
+                                    close ? fmt::format(" ({} differ by less than {})", close, kApproximationTolerance)
+                                          : std::string(),
                                     skipped ? fmt::format(" ({} more grew over {} basis states)", skipped, kMaxTerms)
                                             : std::string()));
 }

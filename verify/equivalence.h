@@ -15,6 +15,14 @@ struct EquivOptions {
     int random_states = 6;            ///< random input states for the simulation fallback
     uint64_t seed = 1;
     bool allow_probabilistic = true;  ///< when false, sampling and random-state answers are inconclusive
+    /// The second circuit approximates the first within this operator-norm bound (rotations
+    /// synthesized within --epsilon). When > 0, an exact engine's "not equivalent" is not trusted (an
+    /// approximation is exactly different) and the numerical engines widen their tolerance by 4x it.
+    double approximation_bound = 0;
+    /// State-vector engines run up to this many wires (at most 25). A state of n wires takes 16 * 2^n
+    /// bytes and a gate on it time in proportion, and the engine checks its deadline between states,
+    /// so compile's default check lowers this to keep within its budget.
+    uint32_t max_simulated_wires = 25;
     /// Registers matched although named differently: (name in the first circuit, name in the second).
     std::vector<std::pair<std::string, std::string>> register_map;
 };

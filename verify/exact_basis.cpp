@@ -252,6 +252,30 @@ bool ExactBasisState::same_basis_states(const ExactBasisState& other) const {
     return words_ == other.words_ && keys_ == other.keys_;
 }
 
+double ExactBasisState::distance_up_to_phase(const ExactBasisState& other) const {
+    double na = 0, nb = 0;
+    for (size_t t = 0; t < size(); ++t) na += std::norm(complex_value(t));
+    for (size_t t = 0; t < other.size(); ++t) nb += std::norm(other.complex_value(t));
+    if (na == 0 || nb == 0 || words_ != other.words_) return 2;
+    // Both term lists are sorted by basis state: walk them together for the overlap.
+    std::complex<double> overlap = 0;
+    size_t i = 0, j = 0;
+    while (i < size() && j < other.size()) {
+        const bool equal = std::equal(key(i), key(i) + words_, other.key(j));
+        const bool less = std::lexicographical_compare(key(i), key(i) + words_, other.key(j), other.key(j) + words_);
+        if (equal) {
+            overlap += std::conj(complex_value(i)) * other.complex_value(j);
+            ++i, ++j;
+        } else if (less) {
+            ++i;
+        } else {
+            ++j;
+        }
+    }
+    const double fidelity = std::min(1.0, std::abs(overlap) / std::sqrt(na * nb));
+    return std::sqrt(std::max(0.0, 2 - 2 * fidelity));
+}
+
 ExactValue ExactBasisState::product(const ExactValue& x, const ExactValue& y) {
     ExactValue p;
     for (int i = 0; i < 4; ++i)

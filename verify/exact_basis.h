@@ -51,6 +51,10 @@ public:
     /// Sorted by basis state (done by run()); two states then compare term by term.
     bool same_basis_states(const ExactBasisState& other) const;
 
+    /// min over phases of || a/|a| - e^{i phi} b/|b| ||, in doubles: how far apart two states are
+    /// up to a global phase (an approximated rotation leaves exact states unequal but close).
+    double distance_up_to_phase(const ExactBasisState& other) const;
+
     /// The exact product of two values (for ratio tests: x/y == u/v iff x*v == u*y).
     static ExactValue product(const ExactValue& x, const ExactValue& y);
 

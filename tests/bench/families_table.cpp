@@ -1,4 +1,4 @@
-// Prints the README table of the benchmark families: T, CNOT and total ops when lowering first and
+// Prints the table of the benchmark families in docs/optimization.md: T, CNOT and total ops when lowering first and
 // running only peephole cleanup (a0) or all low-level passes (a), and at whittle's -O2 and -O3 (b),
 // beside the published values.
 #include <algorithm>

@@ -1,4 +1,4 @@
-// Prints the README table of the multi-control constructions for n = 3..10 and checks the published counts.
+// Prints the table of the multi-control constructions in docs/lowering.md for n = 3..10 and checks the published counts.
 #include <doctest/doctest.h>
 
 #include <iostream>
@@ -53,7 +53,7 @@ Row measure(uint32_t n, uint32_t clean, uint32_t dirty, const std::string& targe
 
 }  // namespace
 
-TEST_CASE("construction table, n = 3..10 (README)") {
+TEST_CASE("construction table, n = 3..10 (docs/lowering.md)") {
     std::cout << "| n | construction | Toffoli | T | CNOT | qubits |\n|---|---|---|---|---|---|\n";
     for (uint32_t n = 3; n <= 10; ++n) {
         const Row vc = measure(n, n - 2, 0, "clifford+t", false);
@@ -65,13 +65,13 @@ TEST_CASE("construction table, n = 3..10 (README)") {
         auto line = [&](const char* name, const Row& r, const std::string& t) {
             std::cout << fmt::format("| {} | {} | {} | {} | {} | {} |\n", n, name, r.toffoli, t, r.cnot, r.qubits);
         };
-        line("V-chain, n-2 clean, relative-phase pairs", vc, std::to_string(vc.t));
-        line("V-chain, n-2 clean, temporary AND + measured erase", vm, std::to_string(vm.t));
+        line("clean ladder, n-2 clean, relative-phase pairs", vc, std::to_string(vc.t));
+        line("clean ladder, n-2 clean, temporary AND + measured erase", vm, std::to_string(vm.t));
         line("Barenco Lemma 7.2, n-2 dirty, 7-T Toffolis", bd, std::to_string(bd.t));
         line("Barenco Lemma 7.2, n-2 dirty, pairs found after lowering", bp, std::to_string(bp.t));
         line("Barenco Lemma 7.3, 1 dirty", sp, std::to_string(sp.t));
         line("no work wire (Lemma 7.5), to cx+rz+sx", na, "rotations");
-        // V-chain: 2n-3 Toffolis (practice); relative-phase pairs give 8n-9 T, the phase-folding
+        // Clean ladder: 2n-3 Toffolis (practice); relative-phase pairs give 8n-9 T, the phase-folding
         // value of CHECKS.md (Amy, Maslov, Mosca 2014, memory); measurement 4(n-2)+7 = 4n-1 (Gidney 2018).
         CHECK(vc.toffoli == 2 * n - 3);
         CHECK(vc.t == 8 * n - 9);

@@ -54,10 +54,10 @@ TEST_CASE("V-chain: n controls, n-2 clean wires, 2n-3 Toffolis (common practice)
         ir::Resources res = lower(c, passes::Metric::TCount, "", &r);
         CHECK(res.toffoli_count == 2 * n - 3);
         CHECK(res.mcx_count == 0);
-        CHECK(stat(r, "v-chain") == 1);
+        CHECK(stat(r, "clean-ladder") == 1);
         CHECK(classically_equal(ref, c));
         REQUIRE(!r.notes.empty());
-        CHECK(r.notes[0].find("v-chain") != std::string::npos);
+        CHECK(r.notes[0].find("clean-ladder") != std::string::npos);
     }
 }
 
@@ -85,7 +85,7 @@ TEST_CASE("Barenco et al. 1995 (quant-ph/9503016) Lemma 7.2: 4(n-2) Toffolis wit
         passes::PassResult r;
         ir::Resources res = lower(c, passes::Metric::TCount, "", &r);
         CHECK(res.toffoli_count == 4 * (n - 2));
-        CHECK(stat(r, "barenco-dirty") == 1);
+        CHECK(stat(r, "borrowed-ladder") == 1);
         CHECK(classically_equal(ref, c));  // dirty wires restored on every input
     }
 }
@@ -98,7 +98,7 @@ TEST_CASE("idle data wires are borrowed as dirty wires") {
     passes::PassResult r;
     ir::Resources res = lower(c, passes::Metric::TCount, "", &r);
     CHECK(res.toffoli_count == 12);
-    CHECK(stat(r, "barenco-dirty") == 1);
+    CHECK(stat(r, "borrowed-ladder") == 1);
     CHECK(classically_equal(ref, c));
 }
 
@@ -127,7 +127,7 @@ TEST_CASE("partial V-chain: one clean wire, the rest borrowed") {
         REQUIRE(r.constructions.size() == 1);
         CHECK(r.constructions[0].reason.find("cheapest in T-count") != std::string::npos);
         if (n != 5) {
-            CHECK(stat(r, "partial-v-chain") == 1);
+            CHECK(stat(r, "partial-clean-ladder") == 1);
             // 2 paired Toffolis for the clean wire plus Lemma 7.2 on n-1 controls.
             CHECK(res.toffoli_count == 2 + 4 * (n - 3));
         } else {
@@ -147,7 +147,7 @@ TEST_CASE("no work wire: Barenco et al. 1995 Lemma 7.5 recursion is exact") {
         passes::PassResult r;
         ir::Resources res = lower(c, passes::Metric::TCount, "", &r);
         CHECK(res.mcx_count == 0);
-        CHECK(stat(r, "no-ancilla") == 1);
+        CHECK(stat(r, "no-work-wire") == 1);
         CHECK(ir::distance_up_to_phase(ir::circuit_unitary(ref), ir::circuit_unitary(c)) < 1e-10);
     }
 }

@@ -55,7 +55,7 @@ TEST_CASE("compile report carries options, passes, constructions and the error t
     a.ops_before = 13;
     a.ops_after = 20;
     a.result.count("mcx-lowered", 1);
-    a.result.constructions.push_back({"flag ^= crane[2] & !berth[0] & berth[1]", "clean-v-chain", "1 clean wire free: w[0]",
+    a.result.constructions.push_back({"flag ^= crane[2] & !berth[0] & berth[1]", "clean-ladder", "1 clean wire free: w[0]",
                                       ir::SourceLoc{0, 7, 3}, 14, 12});
     passes::PassRecord b;
     b.name = "approx-rotations";
@@ -79,7 +79,7 @@ TEST_CASE("compile report carries options, passes, constructions and the error t
     CHECK(j["passes"][1]["notes"][0] == "rz(pi/8) berth[0]: 52 T");
     REQUIRE(j["constructions"].size() == 1);
     CHECK(j["constructions"][0]["pass"] == "lower-controls");
-    CHECK(j["constructions"][0]["method"] == "clean-v-chain");
+    CHECK(j["constructions"][0]["method"] == "clean-ladder");
     CHECK(j["constructions"][0]["loc"]["line"] == 7);
     CHECK(j["constructions"][0]["t_count"] == 14);
     CHECK(j["approximation_error_bound"].get<double>() == doctest::Approx(3e-10));

@@ -21,7 +21,7 @@ input states on the data wires, with every clean work wire (declared or added by
 work wires back at |0> (up to a global phase per branch; a unitary output has one branch).
 
 WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number of circuits (default
-120); a failure prints the .wq input, the configuration and a command that reproduces it.
+80); a failure prints the .wq input, the configuration and a command that reproduces it.
 """
 import math
 import os
@@ -36,7 +36,7 @@ import numpy as np
 
 WHITTLE = os.environ.get("WHITTLE_BIN", "whittle")
 SEED = int(os.environ.get("WHITTLE_DIFF_SEED", "1"))
-CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "120"))
+CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "80"))
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
 STATES = 3  # random input states per check
@@ -215,6 +215,20 @@ def when_block(rng, prog, data):
     else:
         prog.lines.append(f"when {prog.lit(c, pol)} {{ ry(pi/4) {prog.name(t)} }}")
         prog.ops.append(("u1", ry(math.pi / 4), t, [(c, pol)]))
+
+
+def reported_programs():
+    """The two inputs of the trust issue that were compiled wrong with exit 0 (as .wq): a Toffoli pair
+    whose uncompute writes the controls the other way round, and a Toffoli before a 3-control X on
+    its target (the construction's own Toffolis then form such a pair)."""
+    a = Program(4, 0, False)
+    a.mcx(2, [(0, True), (1, True)])
+    a.mcx(3, [(2, True)])
+    a.mcx(2, [(1, True), (0, True)])
+    b = Program(7, 0, False)
+    b.mcx(5, [(2, True), (4, True)])
+    b.mcx(5, [(0, True), (4, True), (1, True)])
+    return [a, b]
 
 
 def random_program(rng, classical):
@@ -503,6 +517,11 @@ def main():
     rng_np = np.random.default_rng(SEED)
     tmp = tempfile.mkdtemp(prefix="whittle-diff-")
     progs = []
+    for i, prog in enumerate(reported_programs()):
+        path = os.path.join(tmp, f"reported{i}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
     for i in range(CIRCUITS):
         # One in four is classical (X-type only), so the nct target has inputs too.
         prog = random_program(rng, classical=i % 4 == 3)

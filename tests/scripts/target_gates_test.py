@@ -1,8 +1,8 @@
 #!/usr/bin/env python3
-"""For every target, the gates whittle writes are exactly within the target's documented set (README,
-"Targets"): several samples and random programs are compiled per target, emitted as OpenQASM 2.0,
+"""For every target, the gates whittle writes are exactly within the target's documented set (docs/lowering.md,
+the target table): several samples and random programs are compiled per target, emitted as OpenQASM 2.0,
 OpenQASM 3.0 and .wq, and the gate names parsed out of each text are compared with a per-target
-list written from the README's gate table (not from the emitters)."""
+list written from the gate table of docs/lowering.md (not from the emitters)."""
 import os
 import pathlib
 import random
@@ -14,7 +14,7 @@ import tempfile
 SRC = pathlib.Path(os.environ.get("WHITTLE_SOURCE_DIR", pathlib.Path(__file__).resolve().parents[2]))
 BIN = os.environ.get("WHITTLE_BIN", str(SRC / "build" / "whittle"))
 
-# README "Targets": the documented gate set of each target, as OpenQASM names (2.0: the header of
+# docs/lowering.md, the target table: the documented gate set of each target, as OpenQASM names (2.0: the header of
 # arXiv:1707.03429 plus what 2.0 files then define, iswap and r; 3.0: stdgates.inc names) and as
 # .wq spellings. X with one positive control is CNOT (cx, `t ^= c`), with two Toffoli (ccx,
 # `t ^= a & b`); CZ is `phase(pi) a & b` in .wq.

@@ -25,7 +25,7 @@ inline ir::Op toffoli(uint32_t x, uint32_t y, uint32_t t) { return ir::Op::x(t, 
 /// chain of partial ANDs, one Toffoli into the target, uncompute the chain.
 inline FamilyCircuit mcx_vchain(uint32_t n) {
     FamilyCircuit f;
-    f.name = "mcx-vchain-" + std::to_string(n);
+    f.name = "mcx-clean-ladder-" + std::to_string(n);
     ir::Circuit& c = f.circuit;
     const uint32_t q = c.add_register("q", 2 * n - 1, ir::Role::Data);  // all data, as OpenQASM gives it
     for (uint32_t i = 0; i < n; ++i) f.controls.push_back(q + i);

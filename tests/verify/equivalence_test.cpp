@@ -487,6 +487,36 @@ TEST_CASE("a T turned into T-dagger in a wide Clifford+T circuit is found with a
     CHECK(r.confidence.rfind("exact", 0) == 0);
 }
 
+// A controlled T (a phase of pi/4 on a product of two wires) needs rotations by pi/8 in Clifford+T,
+// which Ross–Selinger synthesis approximates (arXiv:1403.2975): the output is exactly different from
+// the input but within the error bound. The exact witness search must not call that a difference
+// (found by tests/scripts/differential_test.py, seed 1), and a real difference is still found.
+TEST_CASE("an output with approximated rotations is not a witness; a planted bug in it still is") {
+    // The generated program, as the differential test wrote it.
+    const Circuit source = wq(
+        "qubit q[4]\nancilla w[2]\nq[3] ^= q[2] & !q[0]\n"
+        "compute { w[0] ^= !q[2] & q[0] } then { q[1] ^= w[0] & q[0]; phase(pi) w[0] & q[2] }\n"
+        "q[3] ^= !q[0] & q[1] & q[2]\nq[2] ^= q[0] & q[1] & !q[3]\nq[2] ^= q[0] & !q[3] & q[1]\n"
+        "q[0] ^= q[1] & !q[3]\ns q[2]\nq[0] ^= !q[3] & q[1]\nq[1] ^= q[3] & q[0] & !q[2]\n"
+        "phase(pi/4) q[0] & q[1]\nphase(pi/4) q[0] & q[2]\nq[1] ^= q[3] & !q[2] & q[0]\n"
+        "q[0] ^= q[1] & q[2]\nq[0] ^= q[1] & q[2]\n");
+    passes::PassOptions po;
+    po.level = 1;
+    po.target = "clifford+t";
+    Circuit out = source;
+    passes::run_passes(out, passes::pipeline_for(po), po);
+    const EquivResult r = check_equivalence(source, out);
+    INFO(r.engine << ": " << r.confidence << " " << r.counterexample);
+    CHECK(r.verdict == Verdict::Equivalent);
+    Circuit bad = out;
+    for (Op& op : bad.ops)
+        if (op.kind == OpKind::Phase && op.controls.size() == 1 && op.angle == Angle::pi_times(1, 4)) {
+            op.angle = -op.angle;
+            break;
+        }
+    CHECK(check_equivalence(source, bad).verdict == Verdict::NotEquivalent);
+}
+
 // A wire one side lacks keeps that side's role: a data wire takes every input, and the other side
 // leaves it alone. (Before, it was a clean ancilla fixed at |0>, which hid this CNOT.)
 TEST_CASE("a data register on one side only takes every input") {
