@@ -7,10 +7,32 @@
 #include <fmt/format.h>
 
 #include "frontend/elaborator.h"
+#include "frontend/load.h"
 
 namespace whittle::frontend {
 
 using ir::Op;
+
+namespace {
+
+/// The standard library file (e.g. "compare.wq") that defines a public routine `routine_name`, or ""
+/// (names starting with `arith_` are the library's internals). Read only on the error path.
+std::string standard_library_file_of(const std::string& routine_name) {
+    namespace fs = std::filesystem;
+    if (routine_name.rfind("arith_", 0) == 0) return "";
+    std::error_code ec;
+    const std::string prefix = "routine " + routine_name + "(";
+    for (const fs::directory_entry& e : fs::directory_iterator(stdlib_dir(), ec)) {
+        if (e.path().extension() != ".wq") continue;
+        std::ifstream in(e.path());
+        std::string line;
+        while (std::getline(in, line))
+            if (line.rfind(prefix, 0) == 0) return e.path().filename().string();
+    }
+    return "";
+}
+
+}  // namespace
 
 void Elaborator::exec_call(const File& f, const Stmt& s) {
     ir::SourceLoc loc = f.loc_of(s);
@@ -18,6 +40,12 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
     if (it == routines_.end()) {
         const Binding* b = lookup(s.sym);
         if (b) throw UserError(fmt::format("'{}' is not a routine", name(s.sym)), loc);
+        const std::string file = standard_library_file_of(name(s.sym));
+        if (!file.empty())
+            throw UserError(fmt::format("unknown routine '{}': the standard library defines it (in {}); add `use \"arith\"` "
+                                        "at the top of the file",
+                                        name(s.sym), file),
+                            loc);
         throw UserError(fmt::format("unknown routine '{}' (expected a gate name or a routine defined with 'routine')", name(s.sym)), loc);
     }
     const File& rf = *it->second.file;

@@ -1,6 +1,8 @@
 // The .wq grammar: recursive descent over the X3-scanned tokens, building the flat syntax tree.
 #include "frontend/wq_grammar.h"
 
+#include <cctype>
+
 #include <fmt/format.h>
 
 #include "frontend/wq_lexer.h"
@@ -31,6 +33,21 @@ constexpr GateInfo kGates[] = {
     {"ry", Gate::RY, 1, 1}, {"rz", Gate::RZ, 1, 1}, {"u", Gate::U, 3, 1},   {"r", Gate::R, 2, 1},
     {"xx", Gate::XX, 1, 2}, {"iswap", Gate::ISwap, 0, 2},
 };
+
+/// The .wq spelling of gates other languages write as calls (`cx a, b`), for the error message.
+const char* foreign_gate_hint(std::string_view word) {
+    std::string w(word);
+    for (char& ch : w) ch = char(std::tolower(static_cast<unsigned char>(ch)));
+    if (w == "cx" || w == "cnot") return "a CNOT is written `b ^= a` (target ^= control)";
+    if (w == "ccx" || w == "toffoli" || w == "ccnot") return "a Toffoli is written `c ^= a & b`";
+    if (w == "mcx") return "a multi-controlled X is written `t ^= a & b & c` (or `when a & b & c { x t }`)";
+    if (w == "cz") return "a CZ is written `phase(pi) a & b`";
+    if (w == "ccz") return "a CCZ is written `phase(pi) a & b & c`";
+    if (w == "swap") return "a swap is written `a <-> b`";
+    if (w == "cswap" || w == "fredkin") return "a controlled swap is written `when c { a <-> b }`";
+    if (w == "tdg" || w == "sdg") return "an inverse gate is written with '~' (`~t q`, `~s q`)";
+    return nullptr;
+}
 
 const GateInfo* find_gate(std::string_view name) {
     for (const GateInfo& g : kGates)
@@ -79,6 +96,12 @@ public:
 private:
     // ---- tokens ----
     void advance() {
+        if (cur_.kind != Tok::Newline && cur_.kind != Tok::End) {
+            // One past the token's last character: strings and quoted names carry their delimiters.
+            const bool delimited = cur_.kind == Tok::String || (cur_.kind == Tok::Ident && cur_.quoted);
+            last_line_ = cur_.line;
+            last_end_col_ = cur_.col + uint32_t(cur_.text.size()) + (delimited ? 2 : 0);
+        }
         if (has_peek_) {
             cur_ = peek_;
             has_peek_ = false;
@@ -99,8 +122,13 @@ private:
     [[noreturn]] void fail(const Token& t, const std::string& msg) const {
         throw UserError(msg, file_.loc(t.line, t.col));
     }
+    /// A missing piece at a line end or the end of the file is located just after the last token
+    /// read (where it belongs), not at the next line.
     [[noreturn]] void expected(const std::string& what) const {
-        fail(cur_, fmt::format("expected {}, found {}", what, describe(cur_)));
+        const std::string msg = fmt::format("expected {}, found {}", what, describe(cur_));
+        if ((cur_.kind == Tok::End || cur_.kind == Tok::Newline) && last_line_ > 0)
+            throw UserError(msg, file_.loc(last_line_, last_end_col_));
+        fail(cur_, msg);
     }
     void check_bad() const {
         if (cur_.kind == Tok::Bad) {
@@ -477,6 +505,8 @@ private:
         if (peek().kind != Tok::LParen) {
             if (is_word("as") || is_word("in") || is_word("int") || is_word("angle"))
                 fail(t, fmt::format("'{}' cannot start a statement", t.text));
+            if (const char* hint = foreign_gate_hint(t.text); hint && peek().kind == Tok::Ident)
+                fail(t, fmt::format("'{}' is not a .wq gate: {}", t.text, hint));
             advance();
             fail(cur_, fmt::format("expected '^=' or '<->' after '{}' (or '(' to call a routine '{}'), found {}", t.text,
                                    t.text, describe(cur_)));
@@ -671,6 +701,7 @@ private:
     File file_;
     Token cur_, peek_;
     bool has_peek_ = false;
+    uint32_t last_line_ = 0, last_end_col_ = 0;  ///< just after the last token read (for "expected")
     uint32_t nest_ = 0;
     uint32_t expr_nesting_ = 0;
     uint32_t block_nesting_ = 0;
