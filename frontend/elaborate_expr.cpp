@@ -78,7 +78,7 @@ Number Elaborator::eval_number(const File& f, uint32_t ei) const {
     }
     case ExprKind::Index: fail(f, e, fmt::format("expected a number, but '{}[...]' is a wire", name(e.sym)));
     case ExprKind::Call: {
-        if (name(e.sym) != "size") fail(f, e, fmt::format("unknown function '{}' (the built-in function is size(register))", name(e.sym)));
+        if (name(e.sym) != "size") return eval_function(f, e);
         const Expr& arg = f.exprs[e.lhs];
         const Binding* b = arg.kind == ExprKind::Name ? lookup(arg.sym) : nullptr;
         if (!b || (b->kind != Binding::Register && b->kind != Binding::Wire && b->kind != Binding::Bits))
@@ -155,6 +155,9 @@ Number Elaborator::eval_number(const File& f, uint32_t ei) const {
     switch (e.kind) {
     case ExprKind::Add:
     case ExprKind::Sub: {
+        // Adding an exact 0 keeps the other side as it is (pi + log(1) stays a multiple of pi).
+        if (b.kind == Number::Rat && b.num == 0) return a;
+        if (a.kind == Number::Rat && a.num == 0 && b.kind != Number::Real && e.kind == ExprKind::Add) return b;
         __int128 bn = e.kind == ExprKind::Sub ? -__int128(b.num) : __int128(b.num);
         if (exact_operands && a.kind == b.kind)
             return exact(a.kind, __int128(a.num) * b.den + bn * a.den, __int128(a.den) * b.den);
@@ -175,6 +178,73 @@ Number Elaborator::eval_number(const File& f, uint32_t ei) const {
     default: break;
     }
     fail(f, e, "not a number");
+}
+
+Number Elaborator::eval_function(const File& f, const Expr& e) const {
+    const std::string fn = name(e.sym);
+    const bool known = fn == "sqrt" || fn == "exp" || fn == "log" || fn == "asin" || fn == "acos" || fn == "atan";
+    if (!known)
+        fail(f, e, fmt::format("unknown function '{}' (the built-in functions are size(register), sqrt, exp, log, "
+                               "asin, acos, atan)",
+                               fn));
+    const Number x = eval_number(f, e.lhs);
+    const double v = x.to_double();
+    if (!std::isfinite(v)) fail(f, e, fmt::format("the argument of {} is not a finite number", fn));
+    auto real = [&](double r) {
+        if (!std::isfinite(r)) fail(f, e, fmt::format("{}({}) is not a finite number", fn, v));
+        return Number{Number::Real, 0, 1, r};
+    };
+    auto pi_times = [](int64_t num, int64_t den) { return Number{Number::PiRat, num, den, 0.0}; };
+    auto rat = [](int64_t num, int64_t den) { return Number{Number::Rat, num, den, 0.0}; };
+    // Exact values where the result is rational or a rational multiple of pi (x rational, reduced).
+    const bool exact_rat = x.kind == Number::Rat;
+    auto is = [&](int64_t num, int64_t den) { return exact_rat && x.num == num && x.den == den; };
+    auto exact_root = [](int64_t n) -> int64_t {  // floor(sqrt(n)) when it is exact, else -1
+        if (n < 0) return -1;
+        int64_t r = int64_t(std::llround(std::sqrt(double(n))));
+        for (int64_t c = std::max<int64_t>(0, r - 2); c <= r + 2; ++c)
+            if (__int128(c) * c == n) return c;
+        return -1;
+    };
+    if (fn == "sqrt") {
+        if (v < 0) fail(f, e, fmt::format("sqrt of a negative number ({})", v));
+        if (exact_rat) {
+            const int64_t rn = exact_root(x.num), rd = exact_root(x.den);
+            if (rn >= 0 && rd > 0) return rat(rn, rd);
+        }
+        return real(std::sqrt(v));
+    }
+    if (fn == "exp") {
+        if (is(0, 1)) return rat(1, 1);
+        return real(std::exp(v));
+    }
+    if (fn == "log") {
+        if (v <= 0) fail(f, e, fmt::format("log of a number that is not positive ({})", v));
+        if (is(1, 1)) return rat(0, 1);
+        return real(std::log(v));
+    }
+    if (fn == "atan") {
+        if (is(0, 1)) return rat(0, 1);
+        if (is(1, 1)) return pi_times(1, 4);
+        if (is(-1, 1)) return pi_times(-1, 4);
+        return real(std::atan(v));
+    }
+    if (v < -1 || v > 1) fail(f, e, fmt::format("{} takes a number in [-1, 1], found {}", fn, v));
+    if (fn == "asin") {
+        if (is(0, 1)) return rat(0, 1);
+        if (is(1, 2)) return pi_times(1, 6);
+        if (is(-1, 2)) return pi_times(-1, 6);
+        if (is(1, 1)) return pi_times(1, 2);
+        if (is(-1, 1)) return pi_times(-1, 2);
+        return real(std::asin(v));
+    }
+    // acos
+    if (is(1, 1)) return rat(0, 1);
+    if (is(1, 2)) return pi_times(1, 3);
+    if (is(0, 1)) return pi_times(1, 2);
+    if (is(-1, 2)) return pi_times(2, 3);
+    if (is(-1, 1)) return pi_times(1, 1);
+    return real(std::acos(v));
 }
 
 Number Elaborator::eval_integer_op(const File& f, const Expr& e) const {

@@ -79,6 +79,7 @@ private:
     void bind(uint32_t sym, const Binding& b, ir::SourceLoc loc);
     Number eval_number(const File& f, uint32_t e) const;
     Number eval_integer_op(const File& f, const Expr& e) const;  ///< & ^ | << >> and comparisons
+    Number eval_function(const File& f, const Expr& e) const;    ///< sqrt exp log asin acos atan
     int64_t eval_int(const File& f, uint32_t e, const char* what) const;
     ir::Angle eval_angle(const File& f, uint32_t e) const;
     uint32_t resolve_wire(const File& f, uint32_t e) const;

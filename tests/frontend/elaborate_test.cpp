@@ -1,6 +1,7 @@
 // Elaboration of .wq programs into the IR: every construct, its exact ops, and its errors.
 #include <doctest/doctest.h>
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 
@@ -75,6 +76,33 @@ TEST_CASE("angles: exact multiples of pi stay exact, decimals are radians") {
     CHECK_FALSE(c.ops[3].angle.is_exact());
     CHECK(c.ops[4].angle == ir::Angle::pi_times(1, 3));
     CHECK(c.ops[4].angle.is_exact());
+}
+
+TEST_CASE("angle functions: exact at the textbook values, the C library's values elsewhere") {
+    // Exact values: the unit-circle table (sin pi/6 = 1/2, cos pi/3 = 1/2, tan pi/4 = 1), practice.
+    ir::Circuit c = load("qubit q\nry(2*asin(1/2)) q\nry(acos(-1/2)) q\nrz(atan(1)) q\nrz(asin(1)) q\n"
+                         "rz(acos(1)) q\nrz(pi*sqrt(9/4)) q\nrz(pi*exp(0) + log(1)) q\n");
+    CHECK(c.ops[0].angle == ir::Angle::pi_times(1, 3));
+    CHECK(c.ops[1].angle == ir::Angle::pi_times(2, 3));
+    CHECK(c.ops[2].angle == ir::Angle::pi_times(1, 4));
+    CHECK(c.ops[3].angle == ir::Angle::pi_times(1, 2));
+    REQUIRE(c.ops.size() == 7);
+    CHECK(c.ops[4].angle == ir::Angle());
+    CHECK(c.ops[5].angle == ir::Angle::pi_times(3, 2));
+    CHECK(c.ops[6].angle == ir::Angle::pi_times(1, 1));
+    for (size_t i = 0; i < c.ops.size(); ++i) CHECK(c.ops[i].angle.is_exact());
+    // Amplitude loading: ry(2 asin(sqrt(p))) puts amplitude sqrt(p) on |1>; values from the C library.
+    ir::Circuit d = load("qubit q\nry(2*asin(sqrt(0.3))) q\nrz(atan(2)) q\nrz(log(2)) q\nrz(exp(1)) q\nrz(acos(0.1)) q\n");
+    CHECK_FALSE(d.ops[0].angle.is_exact());
+    CHECK(d.ops[0].angle.to_radians() == doctest::Approx(2 * std::asin(std::sqrt(0.3))));
+    CHECK(d.ops[1].angle.to_radians() == doctest::Approx(std::atan(2.0)));
+    CHECK(d.ops[2].angle.to_radians() == doctest::Approx(std::log(2.0)));
+    CHECK(d.ops[3].angle.to_radians() == doctest::Approx(std::exp(1.0)));
+    CHECK(d.ops[4].angle.to_radians() == doctest::Approx(std::acos(0.1)));
+    CHECK(error_of("qubit q\nrz(asin(2)) q\n") == "2:4: asin takes a number in [-1, 1], found 2");
+    CHECK(error_of("qubit q\nrz(sqrt(-1)) q\n") == "2:4: sqrt of a negative number (-1)");
+    CHECK(error_of("qubit q\nrz(log(0)) q\n") == "2:4: log of a number that is not positive (0)");
+    CHECK(error_of("qubit q\nrz(cos(0)) q\n").find("unknown function 'cos'") != std::string::npos);
 }
 
 TEST_CASE("when: controls accumulate through nesting with their polarity") {
