@@ -250,9 +250,27 @@ bool as_parity(const BoolExpr& e, std::vector<uint32_t>& wires, bool& constant) 
     return true;
 }
 
+namespace {
+
+/// How many parents read each node: an operand shared by several parents (comparisons build a DAG)
+/// is released only after its last reader.
+std::vector<uint32_t> reader_counts(const BoolExpr& e) {
+    std::vector<uint32_t> readers(e.nodes.size(), 0);
+    for (const BoolNode& n : e.nodes) {
+        if (n.kind == BoolNode::Const || n.kind == BoolNode::Var) continue;
+        ++readers[n.a];
+        if (n.kind != BoolNode::Not) ++readers[n.b];
+    }
+    return readers;
+}
+
+}  // namespace
+
 std::vector<LitVec> esop(const BoolExpr& e, uint32_t max_terms, ir::SourceLoc loc) {
-    // Operands precede parents: one forward sweep, each operand's cubes moved into its parent.
+    // Operands precede parents: one forward sweep; an operand's cubes are moved into its last reader.
     std::vector<Cubes> val(e.nodes.size());
+    std::vector<uint32_t> readers = reader_counts(e);
+    auto take = [&](uint32_t a) { return readers[a] == 1 ? std::move(val[a]) : Cubes(val[a]); };
     for (size_t i = 0; i < e.nodes.size(); ++i) {
         const BoolNode& n = e.nodes[i];
         switch (n.kind) {
@@ -260,8 +278,8 @@ std::vector<LitVec> esop(const BoolExpr& e, uint32_t max_terms, ir::SourceLoc lo
             if (n.value) val[i].push_back(LitVec{});
             break;
         case BoolNode::Var: val[i].push_back(LitVec{Lit::pos(n.wire)}); break;
-        case BoolNode::Not: val[i] = negate(std::move(val[n.a])); break;
-        case BoolNode::Xor: val[i] = xor_of(std::move(val[n.a]), val[n.b]); break;
+        case BoolNode::Not: val[i] = negate(take(n.a)); break;
+        case BoolNode::Xor: val[i] = xor_of(take(n.a), val[n.b]); break;
         case BoolNode::And: {
             auto r = and_of(val[n.a], val[n.b], max_terms);
             if (!r) too_many(max_terms, loc);
@@ -282,13 +300,14 @@ std::vector<LitVec> esop(const BoolExpr& e, uint32_t max_terms, ir::SourceLoc lo
         }
         }
         if (val[i].size() > max_terms) too_many(max_terms, loc);
+        auto release = [&](uint32_t a) {
+            if (--readers[a] > 0) return;
+            val[a].clear();
+            val[a].shrink_to_fit();
+        };
         if (n.kind != BoolNode::Const && n.kind != BoolNode::Var) {
-            val[n.a].clear();
-            val[n.a].shrink_to_fit();
-            if (n.kind != BoolNode::Not) {
-                val[n.b].clear();
-                val[n.b].shrink_to_fit();
-            }
+            release(n.a);
+            if (n.kind != BoolNode::Not) release(n.b);
         }
     }
     return std::move(val[e.root]);
@@ -296,6 +315,7 @@ std::vector<LitVec> esop(const BoolExpr& e, uint32_t max_terms, ir::SourceLoc lo
 
 std::vector<Monomial> multilinear(const BoolExpr& e, uint32_t max_terms, ir::SourceLoc loc) {
     std::vector<Poly> val(e.nodes.size());
+    std::vector<uint32_t> readers = reader_counts(e);
     const Poly one{{{}, 1}};
     for (size_t i = 0; i < e.nodes.size(); ++i) {
         const BoolNode& n = e.nodes[i];
@@ -318,8 +338,8 @@ std::vector<Monomial> multilinear(const BoolExpr& e, uint32_t max_terms, ir::Sou
         }
         }
         if (n.kind != BoolNode::Const && n.kind != BoolNode::Var) {
-            val[n.a].clear();
-            if (n.kind != BoolNode::Not) val[n.b].clear();
+            if (--readers[n.a] == 0) val[n.a].clear();
+            if (n.kind != BoolNode::Not && --readers[n.b] == 0) val[n.b].clear();
         }
     }
     std::vector<Monomial> out;

@@ -1,6 +1,6 @@
 // Elaboration of .wq statements: declarations, gates, `^=`, phases, `when`, loops, `if`, measurement.
-#include <cmath>
 #include <algorithm>
+#include <cmath>
 #include <filesystem>
 
 #include <fmt/format.h>
@@ -340,7 +340,32 @@ void Elaborator::exec_xor(const File& f, const Stmt& s) {
         if (!zero) emit_cube(product);
         return;
     }
+    if (emit_register_equality(f, s, target)) return;
     for (const LitVec& cube : minimize_esop(esop(e, limits_.max_expansion_terms, loc))) emit_cube(cube);
+}
+
+bool Elaborator::emit_register_equality(const File& f, const Stmt& s, uint32_t target) {
+    // t ^= (x == y) on registers: y ^= x bit by bit, t ^= (y == 0), y ^= x again: 2n CNOTs and one
+    // n-control X, where the exact ESOP has 2^n cubes.
+    const Expr& e = f.exprs[s.expr];
+    if (e.kind != ExprKind::Eq && e.kind != ExprKind::Ne) return false;
+    std::vector<uint32_t> x, y;
+    if (!comparison_wires(f, e.lhs, x) || !comparison_wires(f, e.rhs, y)) return false;
+    if (x.size() > y.size()) std::swap(x, y);  // y is the longer; its extra bits must be 0
+    std::vector<uint32_t> all = x;
+    all.insert(all.end(), y.begin(), y.end());
+    std::sort(all.begin(), all.end());
+    if (std::adjacent_find(all.begin(), all.end()) != all.end()) return false;  // a wire on both sides
+    for (Lit l : ctx_.controls)
+        if (std::binary_search(all.begin(), all.end(), l.wire())) return false;
+    const ir::SourceLoc loc = f.loc_of(s);
+    for (size_t i = 0; i < x.size(); ++i) emit(Op::x(y[i], {Lit::pos(x[i])}), loc);
+    LitVec controls = ctx_.controls;
+    for (uint32_t w : y) and_literal(controls, Lit::neg(w));
+    emit(Op::x(target, std::move(controls)), loc);
+    if (e.kind == ExprKind::Ne) emit(Op::x(target, ctx_.controls), loc);
+    for (size_t i = 0; i < x.size(); ++i) emit(Op::x(y[i], {Lit::pos(x[i])}), loc);
+    return true;
 }
 
 void Elaborator::exec_phase(const File& f, const Stmt& s) {

@@ -10,6 +10,8 @@ namespace whittle::frontend {
 namespace {
 
 constexpr double kPi = 3.14159265358979323846;
+/// Two registers compared by `<` expand exactly into about 2^n cubes; wider ones go to the library.
+constexpr size_t kMaxOrderedComparisonWires = 8;
 
 bool reduce(int64_t& num, int64_t& den) {
     if (den == 0) return false;
@@ -381,6 +383,12 @@ uint32_t Elaborator::build_bool_node(const File& f, uint32_t ei, BoolExpr& out) 
         auto k = e.kind == ExprKind::And ? BoolNode::And : e.kind == ExprKind::Xor ? BoolNode::Xor : BoolNode::Or;
         return out.op(k, a, b, loc);
     }
+    case ExprKind::Eq:
+    case ExprKind::Ne:
+    case ExprKind::Lt:
+    case ExprKind::Le:
+    case ExprKind::Gt:
+    case ExprKind::Ge: return build_comparison(f, e, out);
     case ExprKind::Neg:
     case ExprKind::Add:
     case ExprKind::Sub:
@@ -389,18 +397,94 @@ uint32_t Elaborator::build_bool_node(const File& f, uint32_t ei, BoolExpr& out) 
     case ExprKind::Mod:
     case ExprKind::Shl:
     case ExprKind::Shr:
-    case ExprKind::Eq:
-    case ExprKind::Ne:
-    case ExprKind::Lt:
-    case ExprKind::Le:
-    case ExprKind::Gt:
-    case ExprKind::Ge:
-        fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1), found arithmetic");
+        fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1, comparisons of registers), "
+                   "found arithmetic");
     case ExprKind::Real:
     case ExprKind::Pi:
     case ExprKind::Call: break;
     }
     fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1)");
+}
+
+bool Elaborator::comparison_wires(const File& f, uint32_t ei, std::vector<uint32_t>& wires) const {
+    const Expr& e = f.exprs[ei];
+    if (e.kind == ExprKind::Index) {
+        const Binding* b = lookup(e.sym);
+        if (!b || b->kind == Binding::Num) return false;
+        wires.push_back(resolve_wire(f, ei));
+        return true;
+    }
+    if (e.kind != ExprKind::Name) return false;
+    const Binding* b = lookup(e.sym);
+    if (!b || (b->kind != Binding::Register && b->kind != Binding::Wire)) return false;
+    resolve_wires(f, ei, wires);
+    return true;
+}
+
+uint32_t Elaborator::build_comparison(const File& f, const Expr& e, BoolExpr& out) const {
+    const ir::SourceLoc loc = f.loc_of(e);
+    std::vector<uint32_t> x, y;
+    const bool left = comparison_wires(f, e.lhs, x), right = comparison_wires(f, e.rhs, y);
+    if (!left && !right)
+        fail(f, e, "a comparison in a Boolean expression needs a register on one side (`x == 5`, `x < y`); "
+                   "comparisons of numbers belong in `if` conditions");
+    ExprKind op = e.kind;
+    if (!left) {  // k OP x  ==  x OP' k
+        std::swap(x, y);
+        op = op == ExprKind::Lt ? ExprKind::Gt : op == ExprKind::Gt ? ExprKind::Lt
+           : op == ExprKind::Le ? ExprKind::Ge : op == ExprKind::Ge ? ExprKind::Le : op;
+    }
+    // Le, Ge and Ne are the negations of Gt, Lt and Eq.
+    const bool negate = op == ExprKind::Le || op == ExprKind::Ge || op == ExprKind::Ne;
+    const ExprKind base = op == ExprKind::Le ? ExprKind::Gt : op == ExprKind::Ge ? ExprKind::Lt
+                        : op == ExprKind::Ne ? ExprKind::Eq : op;
+    auto finish = [&](uint32_t node) { return negate ? out.op(BoolNode::Not, node, 0, loc) : node; };
+    auto neg = [&](uint32_t a) { return out.op(BoolNode::Not, a, 0, loc); };
+    auto conj = [&](uint32_t a, uint32_t b) { return out.op(BoolNode::And, a, b, loc); };
+    auto xr = [&](uint32_t a, uint32_t b) { return out.op(BoolNode::Xor, a, b, loc); };
+
+    // Bits from the most significant down: eq_i says bit i agrees, lt_i / gt_i that bit i decides
+    // x < other / x > other. x < other = XOR over i of lt_i & (all bits above i agree); the terms are
+    // disjoint, so their exclusive-or is their disjunction.
+    std::vector<uint32_t> eq_bit, lt_bit, gt_bit;
+    const bool both = left && right;
+    if (both) {
+        const size_t n = std::max(x.size(), y.size());
+        if (base != ExprKind::Eq && n > kMaxOrderedComparisonWires)
+            fail(f, e, fmt::format("an ordered comparison of two registers of {} wires expands into about 2^{} terms; "
+                                   "use less_than(a, b, f) from the standard library (`use \"arith\"`)",
+                                   n, n));
+        for (size_t i = 0; i < n; ++i) {
+            const uint32_t xi = i < x.size() ? out.var(x[i], loc) : out.constant(false, loc);  // zero-extended
+            const uint32_t yi = i < y.size() ? out.var(y[i], loc) : out.constant(false, loc);
+            eq_bit.push_back(neg(xr(xi, yi)));
+            lt_bit.push_back(conj(neg(xi), yi));
+            gt_bit.push_back(conj(xi, neg(yi)));
+        }
+    } else {
+        const int64_t k = eval_int(f, left ? e.rhs : e.lhs, "the number compared with a register");
+        const size_t n = x.size();
+        // k outside [0, 2^n): every value of x is above (k < 0) or below (k >= 2^n) it.
+        const bool below_all = k < 0, above_all = n < 63 && k >= (int64_t(1) << n);
+        if (below_all || above_all) {
+            const bool v = base == ExprKind::Eq ? false : base == ExprKind::Lt ? above_all : below_all;
+            return finish(out.constant(v, loc));
+        }
+        for (size_t i = 0; i < n; ++i) {
+            const bool bit = i < 63 && ((uint64_t(k) >> i) & 1);
+            const uint32_t xi = out.var(x[i], loc);
+            eq_bit.push_back(bit ? xi : neg(xi));
+            lt_bit.push_back(bit ? neg(xi) : out.constant(false, loc));
+            gt_bit.push_back(bit ? out.constant(false, loc) : xi);
+        }
+    }
+    uint32_t agree = out.constant(true, loc), result = out.constant(false, loc);
+    for (size_t i = eq_bit.size(); i-- > 0;) {
+        if (base == ExprKind::Lt) result = xr(result, conj(lt_bit[i], agree));
+        if (base == ExprKind::Gt) result = xr(result, conj(gt_bit[i], agree));
+        agree = conj(agree, eq_bit[i]);
+    }
+    return finish(base == ExprKind::Eq ? agree : result);
 }
 
 void Elaborator::build_bool(const File& f, uint32_t e, BoolExpr& out, bool with_controls) const {

@@ -87,6 +87,12 @@ private:
     /// Builds `out` from an expression; `with_controls` puts the `when` controls in front (AND).
     void build_bool(const File& f, uint32_t e, BoolExpr& out, bool with_controls) const;
     uint32_t build_bool_node(const File& f, uint32_t e, BoolExpr& out) const;
+    /// `x == 5`, `x < y`, ... on registers (unsigned, bit 0 least significant) as a Boolean expression.
+    uint32_t build_comparison(const File& f, const Expr& e, BoolExpr& out) const;
+    /// The wires of a comparison operand when it names wires (a register, a wire, r[i]); false for a number.
+    /// `t ^= x == y` / `x != y` on two registers by the in-place difference; false when it does not apply.
+    bool emit_register_equality(const File& f, const Stmt& s, uint32_t target);
+    bool comparison_wires(const File& f, uint32_t e, std::vector<uint32_t>& wires) const;
     int find_bits(const File& f, uint32_t sym, ir::SourceLoc loc) const;
     [[noreturn]] void fail(const File& f, const Expr& e, const std::string& msg) const;
     std::string name(uint32_t sym) const { return symbols_.name(sym); }
