@@ -159,8 +159,9 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
         write_output(job.output, r.text);
         if (!a.quiet) {
             const ir::Resources res = ir::count_resources(r.circuit);
-            err << fmt::format("{}: {} qubits, T {}, two-qubit {}, depth {}; {}\n", job.input, res.qubits, res.t_count,
-                               res.two_qubit_count, res.depth, a.no_check ? "not checked (--no-check)" : r.check_summary);
+            const std::string kept = r.kept_run.empty() ? "" : fmt::format(" (kept the run {}: cheaper)", r.kept_run);
+            err << fmt::format("{}: {} qubits, T {}, two-qubit {}, depth {}{}; {}\n", job.input, res.qubits, res.t_count,
+                               res.two_qubit_count, res.depth, kept, a.no_check ? "not checked (--no-check)" : r.check_summary);
         }
         return kOk;
     }, err);

@@ -2,6 +2,7 @@
 #include "compiler/compile.h"
 
 #include <algorithm>
+#include <array>
 #include <chrono>
 #include <ostream>
 
@@ -11,6 +12,7 @@
 #include "compiler/final_check.h"
 #include "frontend/load.h"
 #include "ir/printer.h"
+#include "ir/resources.h"
 #include "lowering/targets.h"
 #include "output/compile_report.h"
 #include "output/emit_qasm.h"
@@ -37,7 +39,51 @@ std::string emit_text(const ir::Circuit& c, Emit e) {
     return "";
 }
 
+/// Inputs up to this many ops also compile the alternative runs (compile_alternatives).
+constexpr size_t kAlternativesMaxOps = 2000;
+
+/// The lexicographic cost of a result under `m`: the chosen metric first, the others as tie-breaks.
+std::array<uint64_t, 4> cost_under(const ir::Resources& r, ir::Metric m) {
+    switch (m) {
+    case ir::Metric::TCount: return {r.t_count, r.two_qubit_count, r.depth, r.qubits};
+    case ir::Metric::TwoQubit: return {r.two_qubit_count, r.t_count, r.depth, r.qubits};
+    case ir::Metric::Depth: return {r.depth, r.t_count, r.two_qubit_count, r.qubits};
+    }
+    return {};
+}
+
 }  // namespace
+
+std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const CompileOptions& o, size_t input_ops) {
+    std::vector<std::pair<std::string, CompileOptions>> alts;
+    if (!o.passes.empty() || o.level < 2 || !o.target || input_ops > kAlternativesMaxOps) return alts;
+    // Every combination of: each level from -O1 up, measurement as asked or off, extra wires as
+    // asked or none, each metric. The set of a run with fewer options is a subset of this one's,
+    // so the kept result can only improve as options are added.
+    for (int level = o.level; level >= 1; --level)
+        for (bool measurement : {o.allow_measurement, false})
+            for (uint32_t extra : {o.extra_ancillas, uint32_t(0)})
+                for (ir::Metric m : {o.optimize_for, ir::Metric::TCount, ir::Metric::TwoQubit, ir::Metric::Depth}) {
+                    if (measurement && !o.allow_measurement) continue;
+                    CompileOptions a = o;
+                    a.level = level;
+                    a.allow_measurement = measurement;
+                    a.extra_ancillas = extra;
+                    a.optimize_for = m;
+                    a.passes_done = nullptr;
+                    a.progress = nullptr;
+                    std::vector<std::string> why;
+                    if (level != o.level) why.push_back(fmt::format("at -O{}", level));
+                    if (measurement != o.allow_measurement) why.push_back("without --allow-measurement");
+                    if (extra != o.extra_ancillas) why.push_back("without --extra-ancillas");
+                    if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
+                    if (why.empty()) continue;  // the run asked for, or a repeat of it
+                    const std::string label = fmt::format("{}", fmt::join(why, ", "));
+                    if (std::any_of(alts.begin(), alts.end(), [&](const auto& p) { return p.first == label; })) continue;
+                    alts.emplace_back(label, std::move(a));
+                }
+    return alts;
+}
 
 const char* emit_name(Emit e) {
     switch (e) {
@@ -97,15 +143,19 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
     const bool final_check = o.check && c.ops.size() <= kFinalCheckMaxOps;
     // The lowering takes a declared ancilla for a clean work wire wherever the program does not
     // use it, so a program that leaves one dirty would compile into a wrong circuit: refuse it.
-    std::string contract_note;
+    std::string contract_note, contract_method;
     if (final_check &&
         std::any_of(c.qubits.begin(), c.qubits.end(), [](const ir::Qubit& q) { return q.role == ir::Role::Clean; })) {
         const passes::AncillaContract contract = passes::check_ancilla_contract(c, kContractSeconds);
         if (contract.status == passes::AncillaContract::Status::Violated) throw passes::contract_violation(c, contract);
-        if (contract.status == passes::AncillaContract::Status::Undecided)
+        if (contract.status == passes::AncillaContract::Status::Undecided) {
             contract_note = fmt::format(" (ancillas not proven returned to |0>: {})", contract.method);
+            contract_method = contract.method;
+        }
     }
     if (o.report || final_check) source = c;
+    ir::Circuit alternatives_input;
+    if (!alternative_runs(o, c.ops.size()).empty()) alternatives_input = c;
     const auto compile_start = std::chrono::steady_clock::now();
     if (o.verify_pass) hooks.verify = o.verify_pass;
     if (o.progress) hooks.progress = o.progress;
@@ -119,6 +169,33 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
         return r;
     }
     if (o.passes_done) o.passes_done();
+    // Monotone in the options: a run with fewer options (no measurement, no extra wires, a lower
+    // level) or with constructions priced for another metric may end cheaper under the chosen
+    // metric, since each op's construction is priced before the later passes see it. Small inputs
+    // compile those runs too and keep the cheapest (the first on a tie: the run asked for).
+    if (!alternatives_input.ops.empty()) {
+        auto best = cost_under(ir::count_resources(c), o.optimize_for);
+        for (auto& [why, alt] : alternative_runs(o, alternatives_input.ops.size())) {
+            ir::Circuit a = alternatives_input;
+            std::vector<passes::PassRecord> records;
+            passes::PipelineHooks alt_hooks;
+            if (o.verify_pass) alt_hooks.verify = o.verify_pass;
+            try {
+                records = passes::run_passes(a, pass_names(alt), pass_options(alt), alt_hooks);
+            } catch (const PassCheckFailure& failure) {
+                r.status = CompileStatus::PassCheckFailed;
+                r.failure = failure.what();
+                return r;
+            }
+            const auto cost = cost_under(ir::count_resources(a), o.optimize_for);
+            if (cost < best) {
+                best = cost;
+                c = std::move(a);
+                r.records = std::move(records);
+                r.kept_run = why;
+            }
+        }
+    }
     if (!o.passes.empty() && o.target) {
         // A hand-written list may end with a pass that leaves the target (the report would claim it).
         for (const ir::Op& op : c.ops)
@@ -138,6 +215,11 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
         if (check.verdict == passes::Verdict::NotEquivalent) {
             r.status = CompileStatus::CheckFailed;
             r.failure = check.failure;
+            if (!contract_method.empty())
+                r.failure += fmt::format("  note: the input's declared ancillas were not proven returned to |0> ({}); an input "
+                                         "that leaves an `ancilla` dirty compiles into a different program: declare such "
+                                         "wires `qubit`\n",
+                                         contract_method);
             return r;
         }
         r.check_summary = check.summary + contract_note;
@@ -164,6 +246,7 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
         ri.explicit_passes = o.passes;
         ri.emit = emit_name(o.emit);
         ri.verify = bool(o.verify_pass);
+        ri.kept_run = r.kept_run;
         ri.records = r.records;
         r.report = lowering::compile_report(ri);
     }

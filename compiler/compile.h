@@ -8,6 +8,7 @@
 #include <optional>
 #include <stdexcept>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "ir/circuit.h"
@@ -79,6 +80,9 @@ struct CompileResult {
     /// The check's verdict: "verified exact (path-sum) in 0.02 s", "not checked: ...", with a note
     /// when the ancillas were not proven returned; "" when CompileOptions::check is off.
     std::string check_summary;
+    /// When a run with fewer options or another construction metric gave the kept result (see
+    /// alternative_runs): its label, e.g. "without --allow-measurement"; "" for the run asked for.
+    std::string kept_run;
 };
 
 /// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are
@@ -95,6 +99,13 @@ std::vector<std::string> pass_names(const CompileOptions& o);
 /// something that is not so (UserError). compile() calls it; a driver may call it before reading
 /// any input.
 void check_options(const CompileOptions& o);
+
+/// The other runs a compile of an input of `input_ops` ops also tries, each labelled by how it
+/// differs ("at -O1, without --allow-measurement"): every combination of a level from -O1 up, fewer
+/// options (no measurement, no extra wires) and the construction metrics. Empty for an explicit
+/// --passes list, -O0/-O1, no target, or inputs over 2000 ops. compile() keeps the cheapest result
+/// under CompileOptions::optimize_for (the run asked for on a tie).
+std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const CompileOptions& o, size_t input_ops);
 
 /// Compiles `input`. UserError for bad options, an input that leaves a declared ancilla dirty, or
 /// a --passes list that leaves the target; a failed check is a status, not an exception.

@@ -61,6 +61,7 @@ Json compile_report(const CompileReportInput& in) {
         {"emit", in.emit},
         {"verify", in.verify},
     };
+    j["kept_run"] = in.kept_run.empty() ? Json(nullptr) : Json(in.kept_run);
     if (in.output) j.update(resources_json(ir::count_resources(*in.output)));
     j["input_resources"] = in.source ? resources_json(ir::count_resources(*in.source)) : Json(nullptr);
     Json pass_list = Json::array();

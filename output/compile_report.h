@@ -21,6 +21,7 @@ struct CompileReportInput {
     std::string explicit_passes;         ///< the --passes list when given ("" = the -O pipeline)
     std::string emit;                    ///< output format: wq, qasm2, qasm3
     bool verify = false;                 ///< --verify was on
+    std::string kept_run;                ///< the alternative run whose result was kept ("" = the run asked for)
     std::vector<passes::PassRecord> records;
 };
 

@@ -175,10 +175,10 @@ TEST_CASE("newlines inside parentheses and brackets are blanks") {
 
 TEST_CASE("syntax errors are located and say what was expected") {
     CHECK(error_of("h\n") == "1:2: expected a wire after 'h', found end of line");
-    CHECK(error_of("qubit a[2\n") == "2:1: expected ']' after the index, found end of file");
+    CHECK(error_of("qubit a[2\n") == "1:10: expected ']' after the index, found end of file");
     CHECK(error_of("rz q\n") == "1:4: expected '(' and 1 angle after 'rz', found 'q'");
     CHECK(error_of("rz(1, 2) q\n") == "1:8: rz takes 1 angle, found 2");
-    CHECK(error_of("when a { h a\n") == "2:1: expected '}' to close the block, found end of file");
+    CHECK(error_of("when a { h a\n") == "1:13: expected '}' to close the block, found end of file");
     CHECK(error_of("}\n") == "1:1: unexpected '}': no block is open here");
     CHECK(error_of("for i 0..3 { }\n") == "1:7: expected 'in' after the loop variable, found '0'");
     CHECK(error_of("for i in 0...3 { }\n").find("expected") != std::string::npos);
