@@ -177,6 +177,22 @@ void Elaborator::exec_decl(const File& f, const Stmt& s) {
         }
         if (uint64_t(size) + c_.num_qubits() > limits_.max_qubits)
             throw UserError(fmt::format("the program declares more than {} qubits (the qubit limit)", limits_.max_qubits), eloc);
+        const bool scalar = e.kind == ExprKind::Name;
+        if (in_routine && s.role == ir::Role::Clean && !call_ancillas_.empty()) {
+            const std::pair<uint32_t, bool> shape{uint32_t(size), scalar};
+            std::vector<uint32_t>& pool = free_ancillas_[shape];
+            if (!pool.empty()) {  // a returned call's work wires, back at |0>
+                Binding b;
+                b.kind = Binding::Register;
+                b.first = pool.back();
+                b.size = uint32_t(size);
+                b.scalar = scalar;
+                pool.pop_back();
+                call_ancillas_.back().emplace_back(shape, b.first);
+                bind(e.sym, b, eloc);
+                continue;
+            }
+        }
         std::string reg_name = name(e.sym);
         if (in_routine) {
             uint32_t r = call_stack_.back();
@@ -187,11 +203,12 @@ void Elaborator::exec_decl(const File& f, const Stmt& s) {
             throw UserError(fmt::format("'{}' is already defined", reg_name), eloc);
         }
         register_names_.insert(reg_name);
-        const bool scalar = e.kind == ExprKind::Name;
         Binding b;
         b.kind = Binding::Register;
         b.first = c_.add_register(reg_name, uint32_t(size), s.role, scalar);
         c_.registers.back().loc = eloc;
+        if (in_routine && s.role == ir::Role::Clean && !call_ancillas_.empty())
+            call_ancillas_.back().emplace_back(std::make_pair(uint32_t(size), scalar), b.first);
         b.size = uint32_t(size);
         b.scalar = scalar;
         bind(e.sym, b, eloc);

@@ -111,6 +111,7 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
     for (auto& pb : bound) locals_.push_back(pb);
     scope_depth_ = 1;
     call_stack_.push_back(r.sym);
+    call_ancillas_.emplace_back();
     size_t start = c_.ops.size();
     ir::Angle phase_before = c_.global_phase;
     try {
@@ -124,6 +125,10 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
                         e.loc(), e.file_name());
     }
     call_stack_.pop_back();
+    // The call's ancillas are back at |0> (the program's promise, checked on the whole program by
+    // compile): later calls may take them.
+    for (const auto& [shape, first] : call_ancillas_.back()) free_ancillas_[shape].push_back(first);
+    call_ancillas_.pop_back();
     locals_.resize(mark);
     frame_base_ = saved_base;
     scope_depth_ = saved_depth;

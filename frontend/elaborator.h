@@ -3,6 +3,7 @@
 
 #include <deque>
 #include <memory>
+#include <map>
 #include <string>
 #include <unordered_map>
 #include <unordered_set>
@@ -113,6 +114,12 @@ private:
     std::vector<uint32_t> call_stack_;                  ///< routine symbols being called
     std::unordered_set<std::string> register_names_;
     std::unordered_map<uint32_t, uint32_t> fresh_counter_;  ///< per routine symbol
+    /// Work wires of routine calls that have returned: an `ancilla` comes back at |0> from its
+    /// call, so the next call's `ancilla` of the same shape takes it instead of a new register.
+    /// Key: (size, scalar); value: the registers' first wires.
+    std::map<std::pair<uint32_t, bool>, std::vector<uint32_t>> free_ancillas_;
+    /// Per active call: the ancilla registers it declared ((size, scalar), first wire).
+    std::vector<std::vector<std::pair<std::pair<uint32_t, bool>, uint32_t>>> call_ancillas_;
     Ctx ctx_;
     ir::LitVec lifted_controls_;  ///< `when` controls not applied inside a compute block; still not targets
     uint64_t steps_ = 0;
