@@ -160,7 +160,13 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
         if (!a.quiet) {
             const ir::Resources res = ir::count_resources(r.circuit);
             const std::string kept = r.kept_run.empty() ? "" : fmt::format(" (kept the run {}: cheaper)", r.kept_run);
-            err << fmt::format("{}: {} qubits, T {}, two-qubit {}, depth {}{}; {}\n", job.input, res.qubits, res.t_count,
+            // T is the cost on clifford+t (and nct, which has none); on a rotation target every
+            // non-Clifford rotation is one native rotation, so that is the figure shown.
+            const bool rotation_target = !a.target.empty() && a.target != "clifford+t" && a.target != "nct";
+            const std::string cost = rotation_target
+                ? fmt::format("non-Clifford rotations {}", res.t_count + res.non_clifford_rotations)
+                : fmt::format("T {}", res.t_count);
+            err << fmt::format("{}: {} qubits, {}, two-qubit {}, depth {}{}; {}\n", job.input, res.qubits, cost,
                                res.two_qubit_count, res.depth, kept, a.no_check ? "not checked (--no-check)" : r.check_summary);
         }
         return kOk;

@@ -178,7 +178,7 @@ void Elaborator::exec_decl(const File& f, const Stmt& s) {
         if (uint64_t(size) + c_.num_qubits() > limits_.max_qubits)
             throw UserError(fmt::format("the program declares more than {} qubits (the qubit limit)", limits_.max_qubits), eloc);
         const bool scalar = e.kind == ExprKind::Name;
-        if (in_routine && s.role == ir::Role::Clean && !call_ancillas_.empty()) {
+        if (in_routine && s.role == ir::Role::Clean && !call_ancillas_.empty() && opts_.reuse_work_wires) {
             const std::pair<uint32_t, bool> shape{uint32_t(size), scalar};
             std::vector<uint32_t>& pool = free_ancillas_[shape];
             if (!pool.empty()) {  // a returned call's work wires, back at |0>

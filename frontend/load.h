@@ -13,6 +13,10 @@ namespace whittle::frontend {
 struct LoadOptions {
     std::vector<std::string> include_dirs;  ///< searched by `use` after the including file's folder
     Limits limits;
+    /// A routine call's `ancilla` wires come back at |0>, so a later call's `ancilla` of the same
+    /// shape takes them (fewer qubits); false gives every call fresh wires (what the lowering may
+    /// prefer for T: compiler::compile_file tries both on small programs).
+    bool reuse_work_wires = true;
 };
 
 enum class InputFormat { Wq, Qasm2 };

@@ -6,6 +6,7 @@
 
 #include <array>
 #include <filesystem>
+#include <fstream>
 #include <random>
 #include <utility>
 #include <vector>
@@ -112,4 +113,35 @@ TEST_CASE("issue 20's oracle: --allow-measurement no longer raises T, a depth-pr
     const uint64_t alone = ir::count_resources(compiler::compile(c, only).circuit).t_count;
     CHECK(alone > ir::count_resources(meas.circuit).t_count);
     CHECK_FALSE(meas.kept_run.empty());
+}
+
+TEST_CASE("shared or fresh routine work wires: compile_file keeps the cheaper of the two") {
+    const std::vector<std::string> programs = {
+        "use \"arith\"\nqubit a[3], b[3], p[3]\nmul(a, b, p)\n",
+        "use \"arith\"\nqubit ctl, b[3]\nwhen ctl { mod_add_const(b, 5, 7) }\n",
+        "use \"arith\"\nqubit x[4], f\nfor k in 0..15 { if k % 3 == 1 { equals_const(x, k, f) } }\n",
+    };
+    const std::filesystem::path dir = std::filesystem::temp_directory_path() / "whittle_monotone_test";
+    std::filesystem::create_directories(dir);
+    for (size_t i = 0; i < programs.size(); ++i) {
+        const std::filesystem::path path = dir / ("program" + std::to_string(i) + ".wq");
+        {
+            std::ofstream(path) << programs[i];
+        }
+        compiler::CompileOptions o;
+        o.target = ir::Target::CliffordT;
+        frontend::SourceManager sm;
+        const compiler::CompileResult kept = compiler::compile_file(path.string(), o, sm);
+        REQUIRE(kept.status == compiler::CompileStatus::Ok);
+        for (bool reuse : {true, false}) {
+            frontend::LoadOptions lo;
+            lo.reuse_work_wires = reuse;
+            frontend::SourceManager one_sm;
+            const compiler::CompileResult r = compiler::compile(frontend::load_file(path.string(), one_sm, lo), o);
+            INFO("program " << i << ", shared work wires " << reuse);
+            CHECK(cost(kept.circuit, o.optimize_for) <= cost(r.circuit, o.optimize_for));
+        }
+        if (i == 0) CHECK(ir::count_resources(kept.circuit).qubits < 3 * 3 + 3 * 2);  // mul shares its work wires
+    }
+    std::filesystem::remove_all(dir);
 }
