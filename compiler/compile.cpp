@@ -173,27 +173,37 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
     // level) or with constructions priced for another metric may end cheaper under the chosen
     // metric, since each op's construction is priced before the later passes see it. Small inputs
     // compile those runs too and keep the cheapest (the first on a tie: the run asked for).
+    CompileOptions kept_options;
     if (!alternatives_input.ops.empty()) {
         auto best = cost_under(ir::count_resources(c), o.optimize_for);
+        const CompileOptions* kept = nullptr;
         for (auto& [why, alt] : alternative_runs(o, alternatives_input.ops.size())) {
             ir::Circuit a = alternatives_input;
-            std::vector<passes::PassRecord> records;
-            passes::PipelineHooks alt_hooks;
-            if (o.verify_pass) alt_hooks.verify = o.verify_pass;
-            try {
-                records = passes::run_passes(a, pass_names(alt), pass_options(alt), alt_hooks);
-            } catch (const PassCheckFailure& failure) {
-                r.status = CompileStatus::PassCheckFailed;
-                r.failure = failure.what();
-                return r;
-            }
+            std::vector<passes::PassRecord> records = passes::run_passes(a, pass_names(alt), pass_options(alt));
             const auto cost = cost_under(ir::count_resources(a), o.optimize_for);
             if (cost < best) {
                 best = cost;
                 c = std::move(a);
                 r.records = std::move(records);
                 r.kept_run = why;
+                kept_options = alt;
+                kept = &kept_options;
             }
+        }
+        // --verify checks each pass of the run whose result is kept: the runs are deterministic,
+        // so that run again, with the hook, gives the same circuit.
+        if (kept && o.verify_pass) {
+            ir::Circuit a = alternatives_input;
+            passes::PipelineHooks verify_hooks;
+            verify_hooks.verify = o.verify_pass;
+            try {
+                r.records = passes::run_passes(a, pass_names(*kept), pass_options(*kept), verify_hooks);
+            } catch (const PassCheckFailure& failure) {
+                r.status = CompileStatus::PassCheckFailed;
+                r.failure = failure.what();
+                return r;
+            }
+            WHITTLE_ASSERT(ir::print_wq(a) == ir::print_wq(c));  // the rerun gave the kept circuit
         }
     }
     if (!o.passes.empty() && o.target) {
