@@ -44,6 +44,7 @@ struct CompileArgs {
     double epsilon = 1e-10;
     bool quiet = false;
     std::vector<std::string> include_dirs;
+    std::vector<std::string> roles;  // --role NAME=ROLE, as written
 };
 
 /// One compile: an input and where its output goes ("" = stdout), and the tag that keeps its
@@ -77,6 +78,17 @@ compiler::Emit parse_emit(const std::string& e) {
     throw UserError(fmt::format("--emit takes wq, qasm2 or qasm3, not '{}'", e));
 }
 
+/// One `--role NAME=ROLE`: ROLE is a .wq declaration word (qubit, ancilla, borrow).
+std::pair<std::string, ir::Role> parse_role(const std::string& arg) {
+    const size_t eq = arg.find('=');
+    if (eq == std::string::npos || eq == 0 || eq + 1 == arg.size())
+        throw UserError(fmt::format("--role '{}' needs REGISTER=ROLE, ROLE one of qubit, ancilla, borrow", arg));
+    const std::string name = arg.substr(0, eq), word = arg.substr(eq + 1);
+    for (ir::Role r : {ir::Role::Data, ir::Role::Clean, ir::Role::Dirty})
+        if (word == ir::role_name(r)) return {name, r};
+    throw UserError(fmt::format("--role '{}': unknown role '{}' (expected qubit, ancilla or borrow)", arg, word));
+}
+
 /// The compile options of the command line, the target and the metric parsed here once; the
 /// output format and the report are per job (compile_one).
 compiler::CompileOptions compile_options(const CompileArgs& a) {
@@ -103,6 +115,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.time_passes = a.time_passes;
     o.check = !a.no_check;
     o.include_dirs = a.include_dirs;
+    for (const std::string& r : a.roles) o.register_roles.push_back(parse_role(r));
     return o;
 }
 
@@ -285,6 +298,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_option("--dump-after", args->dump_after, "print the circuit to stderr after the named pass (or 'all')");
     cmd->add_flag("--time-passes", args->time_passes, "print each pass's time to stderr");
     cmd->add_flag("--stats", args->stats, "print each pass's changes to stderr");
+    cmd->add_option("--role", args->roles,
+                    "REGISTER=ROLE: declare a register of the input qubit, ancilla (starts and ends at |0>, checked) or "
+                    "borrow (any state, restored); for OpenQASM inputs, which cannot declare it (repeatable)");
     cmd->add_option("--extra-ancillas", args->extra_ancillas, "fresh clean wires the lowering may add (default 0)");
     cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
     cmd->add_flag("-q,--quiet", args->quiet, "no progress indicator");

@@ -113,6 +113,10 @@ std::vector<std::string> pass_names(const CompileOptions& o) {
 void check_options(const CompileOptions& o) {
     if (!(o.epsilon >= kMinEpsilon && o.epsilon < 1))
         throw UserError(fmt::format("--epsilon must lie in [1e-15, 1), got {}", o.epsilon));
+    for (size_t i = 0; i < o.register_roles.size(); ++i)
+        for (size_t j = 0; j < i; ++j)
+            if (o.register_roles[i].first == o.register_roles[j].first)
+                throw UserError(fmt::format("--role names register '{}' twice", o.register_roles[i].first));
     const passes::PassOptions po = pass_options(o);
     const std::vector<std::string> names = pass_names(o);
     if (!o.passes.empty() && o.target && std::find(names.begin(), names.end(), "to-target") == names.end())
@@ -127,8 +131,31 @@ void check_options(const CompileOptions& o) {
     }
 }
 
+namespace {
+
+/// Sets the roles CompileOptions::register_roles declares (UserError for a name the input lacks).
+void declare_roles(ir::Circuit& c, const CompileOptions& o) {
+    for (const auto& [name, role] : o.register_roles) {
+        const int r = c.find_register(name);
+        if (r < 0) {
+            std::vector<std::string> names;
+            for (const ir::Register& reg : c.registers) names.push_back(reg.name);
+            const std::string file = !o.input_name.empty() ? o.input_name : c.files.empty() ? std::string() : c.files[0];
+            throw UserError(fmt::format("--role {}={}: the input has no quantum register '{}' (its registers: {})", name,
+                                        ir::role_name(role), name, names.empty() ? "none" : fmt::format("{}", fmt::join(names, ", "))),
+                            {}, file);
+        }
+        ir::Register& reg = c.registers[size_t(r)];
+        reg.role = role;
+        for (uint32_t i = 0; i < reg.size; ++i) c.qubits[reg.first + i].role = role;
+    }
+}
+
+}  // namespace
+
 CompileResult compile(ir::Circuit c, const CompileOptions& o) {
     check_options(o);
+    declare_roles(c, o);
     const passes::PassOptions po = pass_options(o);
     const std::vector<std::string> names = pass_names(o);
     passes::PipelineHooks hooks;

@@ -48,6 +48,11 @@ struct CompileOptions {
     bool report = false;               ///< build the JSON report (CompileResult::report)
     std::string input_name;            ///< the input as the user named it (report, messages)
     std::vector<std::string> include_dirs;  ///< extra folders searched by `use` (compile_file)
+    /// Roles declared for registers of the input, by name (`--role NAME=ROLE`): an OpenQASM file
+    /// cannot say which wires start clean. Set on the input before anything else, so a declared
+    /// `ancilla` is held to its contract like one declared in a .wq program; a name that is not a
+    /// quantum register of the input is refused.
+    std::vector<std::pair<std::string, ir::Role>> register_roles;
 
     /// Per-pass translation validation (PipelineHooks::verify): returns the engine that decided,
     /// throws PassCheckFailure for a pass that changed the meaning. Unset = not checked per pass.
