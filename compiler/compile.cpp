@@ -140,9 +140,11 @@ void declare_roles(ir::Circuit& c, const CompileOptions& o) {
         if (r < 0) {
             std::vector<std::string> names;
             for (const ir::Register& reg : c.registers) names.push_back(reg.name);
-            const std::string file = !o.input_name.empty() ? o.input_name : c.files.empty() ? std::string() : c.files[0];
-            throw UserError(fmt::format("--role {}={}: the input has no quantum register '{}' (its registers: {})", name,
-                                        ir::role_name(role), name, names.empty() ? "none" : fmt::format("{}", fmt::join(names, ", "))),
+            std::string file = o.input_name;
+            if (file.empty() && !c.files.empty()) file = c.files[0];
+            throw UserError(fmt::format("--role {}={}: the input has no quantum register '{}' (its registers: {})",
+                                        name, ir::role_name(role), name,
+                                        names.empty() ? "none" : fmt::format("{}", fmt::join(names, ", "))),
                             {}, file);
         }
         ir::Register& reg = c.registers[size_t(r)];
