@@ -1,5 +1,6 @@
 // Prints the benchmark table of docs/benchmarks.md (the published suite and the samples through compiler::compile
-// on every target, beside the published columns); with --lowering-first, the table of docs/optimization.md.
+// on every target, beside the published columns); --lowering-first, the table of docs/optimization.md;
+// --write DIR, the suite as OpenQASM files.
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
@@ -15,6 +16,7 @@
 #include "frontend/load.h"
 #include "ir/error.h"
 #include "ir/resources.h"
+#include "output/emit_qasm.h"
 #include "passes/pipeline.h"
 #include "passes/registry.h"
 #include "support/benchmark_suite.h"
@@ -183,8 +185,8 @@ void suite_table() {
         "-O2, -O3: `--target clifford+t`; the suite's circuits as OpenQASM gives them (every wire data),\n"
         "the samples as written.\n"
         "meas.: `--allow-measurement` and the work registers the construction starts clean declared with\n"
-        "`--role` (Toffoli chain `w=ancilla`, Barenco `w=borrow`, VBE `c=ancilla`, Cuccaro `c0=ancilla`,\n"
-        "carry-lookahead `p=ancilla`; the samples declare their own). The published columns optimize each\n"
+        "`--role` (Toffoli chain `w=ancilla`, Barenco `w=borrow`, VBE `c=ancilla`, Cuccaro `cin=ancilla`,\n"
+        "carry-lookahead `prop=ancilla`; the samples declare their own). The published columns optimize each\n"
         "circuit for every input ([D] adds fresh ancillas for its gadgets); the meas. columns also use the\n"
         "promise that the declared wires start at |0>, so they are not a like-for-like comparison with [D].\n"
         "2q: two-qubit gates at `-O2 --optimize-for 2q --target T`. ms: the -O2 clifford+t compile\n"
@@ -273,6 +275,34 @@ void lowering_first_table() {
     for (size_t i = 0; i < notes.size(); ++i) std::printf("[%zu] %s\n", i + 1, notes[i].c_str());
 }
 
+/// --write DIR: each suite member as OpenQASM 2.0 (plain ccx / cx / x, every register a qreg with
+/// no role line, as the suite's files are), and the `whittle compile` options that declare its roles.
+int write_suite(const std::string& dir) {
+    std::error_code ec;
+    if (!std::filesystem::is_directory(dir, ec)) {
+        std::fprintf(stderr, "--write: '%s' is not a folder\n", dir.c_str());
+        return 2;
+    }
+    for (const test::Benchmark& b : test::benchmark_suite()) {
+        const std::filesystem::path path = std::filesystem::path(dir) / (b.f.name + ".qasm");
+        std::FILE* out = std::fopen(path.string().c_str(), "w");
+        if (!out) {
+            std::fprintf(stderr, "--write: cannot write '%s'\n", path.string().c_str());
+            return 2;
+        }
+        const std::string text = lowering::emit_qasm2(b.f.circuit);
+        const bool ok = std::fwrite(text.data(), 1, text.size(), out) == text.size();
+        if (std::fclose(out) != 0 || !ok) {
+            std::fprintf(stderr, "--write: cannot write '%s'\n", path.string().c_str());
+            return 2;
+        }
+        std::string roles;
+        for (const auto& [name, role] : b.f.roles) roles += fmt::format(" --role {}={}", name, ir::role_name(role));
+        std::printf("%s%s\n", path.string().c_str(), roles.c_str());
+    }
+    return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -280,8 +310,9 @@ int main(int argc, char** argv) {
         lowering_first_table();
         return 0;
     }
+    if (argc == 3 && std::strcmp(argv[1], "--write") == 0) return write_suite(argv[2]);
     if (argc != 1) {
-        std::fprintf(stderr, "usage: %s [--lowering-first]\n", argv[0]);
+        std::fprintf(stderr, "usage: %s [--lowering-first | --write DIR]\n", argv[0]);
         return 2;
     }
     suite_table();

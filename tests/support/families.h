@@ -166,8 +166,8 @@ inline FamilyCircuit vbe_adder(uint32_t n) {
 }
 
 /// The ripple-carry adder of Cuccaro, Draper, Kutin, Moulton 2004 (quant-ph/0410184) in its 2n - 1
-/// Toffoli form: b := a + b + c0, z ^= the carry out, over c0 (carry in; the paper's one ancilla),
-/// a[n], b[n], z. MAJ(x, y, w) = CNOT(w; y), CNOT(w; x), Toffoli(x, y; w) leaves the carry in w;
+/// Toffoli form: b := a + b + c0, z ^= the carry out, over the registers cin (c0, the carry in; the
+/// paper's one ancilla), a[n], b[n] and cout (z). MAJ(x, y, w) = CNOT(w; y), CNOT(w; x), Toffoli(x, y; w) leaves the carry in w;
 /// UMA(x, y, w) = Toffoli(x, y; w), CNOT(w; x), CNOT(x; y) undoes it and writes the sum bit. The
 /// top bit's MAJ and UMA are merged: its carry goes straight into z, so that bit needs one Toffoli
 /// instead of two. 2n - 1 Toffolis and 4n + 1 CNOTs (the paper's depth-reduced drawing, with its
@@ -176,13 +176,13 @@ inline FamilyCircuit cuccaro_adder(uint32_t n) {
     FamilyCircuit f;
     f.name = "cuccaro-adder-" + std::to_string(n);
     ir::Circuit& c = f.circuit;
-    f.carry_in = c.add_register("c0", 1, ir::Role::Data);
+    f.carry_in = c.add_register("cin", 1, ir::Role::Data);
     f.a = register_wires(c.add_register("a", n, ir::Role::Data), n);
     f.b = register_wires(c.add_register("b", n, ir::Role::Data), n);
-    const uint32_t z = c.add_register("z", 1, ir::Role::Data);
+    const uint32_t z = c.add_register("cout", 1, ir::Role::Data);
     f.sum = f.b;
     f.sum.push_back(z);
-    f.roles = {{"c0", ir::Role::Clean}};
+    f.roles = {{"cin", ir::Role::Clean}};
     auto maj = [&](uint32_t x, uint32_t y, uint32_t w) {
         c.ops.push_back(cnot(w, y));
         c.ops.push_back(cnot(w, x));
@@ -213,8 +213,8 @@ inline uint32_t floor_log2(uint32_t n) { return 31 - uint32_t(__builtin_clz(n));
 inline uint32_t ones(uint32_t n) { return uint32_t(__builtin_popcount(n)); }
 
 /// The out-of-place carry-lookahead adder of Draper, Kutin, Rains, Svore 2004 (quant-ph/0406142,
-/// Section 3): s := a + b (n + 1 bits) over a[n], b[n], s[n+1] (starts at 0) and n - w(n) -
-/// floor(log n) clean wires for the propagate tree. Steps: s[i+1] ^= a_i b_i (generate); b_i ^=
+/// Section 3): s := a + b (n + 1 bits) over a[n], b[n], s[n+1] (register `sum`, starts at 0) and
+/// n - w(n) - floor(log n) clean wires for the propagate tree (register `prop`). Steps: s[i+1] ^= a_i b_i (generate); b_i ^=
 /// a_i for i >= 1 (propagate); the P rounds (propagates of blocks of 2^t bits into the clean
 /// wires), G rounds and C rounds (carries of the blocks, then of every bit, in s); the P rounds
 /// undone; s_i ^= b_i (and s_0 ^= a_0 ^ b_0); b restored. 5n - 3w(n) - 3 floor(log n) - 1 Toffolis.
@@ -226,11 +226,11 @@ inline FamilyCircuit cla_adder(uint32_t n) {
     const uint32_t logn = floor_log2(n);
     f.a = register_wires(c.add_register("a", n, ir::Role::Data), n);
     f.b = register_wires(c.add_register("b", n, ir::Role::Data), n);
-    f.sum = register_wires(c.add_register("s", n + 1, ir::Role::Data), n + 1);
+    f.sum = register_wires(c.add_register("sum", n + 1, ir::Role::Data), n + 1);
     const uint32_t work = n - ones(n) - logn;
     if (work > 0) {
-        f.ancillas = register_wires(c.add_register("p", work, ir::Role::Data), work);
-        f.roles = {{"p", ir::Role::Clean}};
+        f.ancillas = register_wires(c.add_register("prop", work, ir::Role::Data), work);
+        f.roles = {{"prop", ir::Role::Clean}};
     }
     // P[t][m] = the propagate of bits [2^t m, 2^t (m + 1)): b_m for t = 0, a clean wire for t >= 1.
     std::vector<std::vector<uint32_t>> P(logn);
