@@ -8,10 +8,15 @@ written as OpenQASM 2.0 with plain ccx gates, compiled to clifford+t with --allo
   by measurement and a classically controlled CZ (Gidney 2018, arXiv:1709.06648; Jones 2013,
   arXiv:1212.5069), so 4(n - 2) for the chain plus 7 for the Toffoli into the target: 11, 15, 19, 39
   for n = 3, 4, 5, 10 (derived from those papers; CHECKS.md);
-- the output is right: the compile's own check, `whittle equiv` against the input, and for
-  n <= 5 the numpy simulator of tests/scripts/differential_test.py (textbook matrices, every
-  measurement branch) against the chain's action computed here on basis states (controls unchanged,
-  the target flipped when every control is 1, the work wires back at |0>);
+- the output is right: for n <= 5 the compile's own check, `whittle equiv` against the input and
+  the numpy simulator of tests/scripts/differential_test.py (textbook matrices, every measurement
+  branch); for every n a sparse simulation written here (every measurement branch, random
+  superpositions of basis inputs); both against the chain's action computed here on basis states
+  (controls unchanged, the target flipped when every control is 1, the work wires back at |0>).
+  For n = 10 the project's checker does not decide the measured output within its budget;
+- the carry-lookahead adder of the benchmark table (Draper, Kutin, Rains, Svore 2004), 10 bits,
+  compiled with `--role prop=ancilla --allow-measurement`: the sparse simulation checks every
+  branch of the output against a + b (integer arithmetic);
 - the same declaration written in the file (the `// whittle: qreg` annotation) does the same;
 - a declaration that does not hold, an unknown register and an unknown role are refused (exit 2,
   no output file).
@@ -250,11 +255,12 @@ def main():
         for label, extra in (("plain", []), ("measured", ["--allow-measurement"]),
                              ("declared", ["--allow-measurement", "--role", "work=ancilla"])):
             dst = os.path.join(tmp, f"chain{n}-{label}.qasm")
-            r = run("compile", src, *target, *extra, "-o", dst)
-            # The compile's own check decides every run but n = 10 with measurements (eight
-            # measurements on 19 wires: its branch simulation runs out of time; the simulations
-            # below check that output).
-            checked = "verified" in r.stderr or (n == 10 and label != "plain")
+            # The compile's own check decides every run but n = 10 with measurements: eight
+            # measurements on 19 wires, its branch simulation gives up after 15-60 s. That output
+            # is compiled with --no-check and checked by the sparse simulation below.
+            undecidable = n == 10 and label == "declared"
+            r = run("compile", src, *target, *extra, "-o", dst, *(["--no-check"] if undecidable else []))
+            checked = "verified" in r.stderr or undecidable
             if r.returncode != 0 or not checked:
                 fail(f"n={n} {label}: exit {r.returncode}, {r.stderr.strip()}")
                 continue
