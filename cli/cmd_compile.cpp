@@ -18,6 +18,7 @@
 #include "compiler/compile.h"
 #include "frontend/diagnostics.h"
 #include "ir/resources.h"
+#include "passes/registry.h"
 
 namespace whittle::cli {
 namespace {
