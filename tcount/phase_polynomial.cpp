@@ -1,0 +1,243 @@
+// Building a region's phase polynomial from its ops, and the exact comparisons of phase functions mod 8.
+#include "tcount/phase_polynomial.h"
+
+#include <bit>
+
+#include "ir/error.h"
+
+namespace whittle::tcount {
+
+using ir::Angle;
+using ir::Op;
+using ir::OpKind;
+
+std::vector<uint64_t> RegionPolynomial::odd_parities() const {
+    std::vector<uint64_t> out;
+    for (const auto& [p, c] : z8)
+        if (c & 1) out.push_back(p);
+    return out;
+}
+
+std::vector<Z8Term> RegionPolynomial::z8_terms() const {
+    std::vector<Z8Term> out;
+    out.reserve(z8.size());
+    for (const auto& [p, c] : z8) out.push_back({p, c});
+    return out;
+}
+
+bool is_region_op(const Op& op) {
+    if (op.is_conditioned()) return false;
+    switch (op.kind) {
+    case OpKind::X: return op.controls.size() <= 1;
+    case OpKind::Swap: return op.controls.empty();
+    case OpKind::Parity: return !op.controls.empty();
+    case OpKind::Phase: {
+        const size_t k = op.controls.size();
+        if (k == 1) return true;
+        const int e = op.angle.eighths();
+        if (k == 2) return e >= 0 && e % 2 == 0;
+        if (k == 3) return e == 0 || e == 4;
+        return false;
+    }
+    case OpKind::H:
+    case OpKind::Y:
+    case OpKind::SX:
+    case OpKind::SXdg:
+    case OpKind::RX:
+    case OpKind::RY:
+    case OpKind::RZ:
+    case OpKind::U:
+    case OpKind::ISwap:
+    case OpKind::XX:
+    case OpKind::R:
+    case OpKind::Measure:
+    case OpKind::Reset:
+    case OpKind::Barrier: return false;
+    }
+    return false;
+}
+
+RegionBuilder::RegionBuilder(uint32_t width) : state_(width) {
+    WHITTLE_ASSERT(width <= 64 && "a region has at most 64 wires");
+    p_.width = width;
+    for (uint32_t i = 0; i < width; ++i) state_[i].mask = uint64_t(1) << i;
+}
+
+void RegionBuilder::add_z8(Affine f, int coef) {
+    coef = ((coef % 8) + 8) % 8;
+    if (coef == 0) return;
+    if (f.flip) {
+        // c * (1 ^ p) = c - c * p.
+        p_.global_phase += Angle::pi_times(coef, 4);
+        coef = (8 - coef) % 8;
+    }
+    if (f.mask == 0) return;
+    int& c = p_.z8[f.mask];
+    c = (c + coef) % 8;
+    if (c == 0) p_.z8.erase(f.mask);
+}
+
+void RegionBuilder::add_term(Affine f, const Angle& a) {
+    const int e = a.eighths();
+    if (e >= 0) {
+        add_z8(f, e);
+        return;
+    }
+    Angle t = a;
+    if (f.flip) {
+        p_.global_phase += t;
+        t = -t;
+    }
+    if (f.mask == 0) return;
+    auto it = p_.other.find(f.mask);
+    if (it == p_.other.end()) {
+        p_.other.emplace(f.mask, t);
+        return;
+    }
+    it->second += t;
+    // A sum of finer angles can land on a multiple of pi/4: it joins the Z8 part.
+    const int e2 = it->second.eighths();
+    if (e2 >= 0) {
+        p_.other.erase(it);
+        add_z8({f.mask, false}, e2);
+    }
+}
+
+void RegionBuilder::apply(const Op& op, uint32_t t) {
+    auto lit_affine = [&](const LitVar& l) {
+        Affine f = state_[l.var];
+        f.flip ^= !l.positive;
+        return f;
+    };
+    switch (op.kind) {
+    case OpKind::X:
+        if (lits_.empty()) {
+            state_[t].flip ^= true;
+            return;
+        }
+        {
+            const Affine c = lit_affine(lits_[0]);
+            state_[t].mask ^= c.mask;
+            state_[t].flip ^= c.flip;
+        }
+        return;
+    case OpKind::Parity: {
+        Affine f;
+        for (const LitVar& l : lits_) {
+            const Affine g = lit_affine(l);
+            f.mask ^= g.mask;
+            f.flip ^= g.flip;
+        }
+        add_term(f, op.angle);
+        return;
+    }
+    case OpKind::Phase: {
+        const size_t k = lits_.size();
+        if (k == 1) {
+            add_term(lit_affine(lits_[0]), op.angle);
+            return;
+        }
+        // AND(l_1..l_k) = 2^{1-k} * sum over non-empty S of (-1)^{|S|-1} XOR(l_S), an identity of
+        // integer-valued functions, so angle * AND splits into parity terms of angle / 2^{k-1}.
+        const int e = op.angle.eighths();
+        WHITTLE_ASSERT(e >= 0 && e % (1 << (k - 1)) == 0 && "a region phase on k literals is a multiple of 2^{k-1} pi/4");
+        const int per = e >> (k - 1);
+        for (uint32_t s = 1; s < (1u << k); ++s) {
+            Affine f;
+            for (size_t i = 0; i < k; ++i)
+                if (s >> i & 1) {
+                    const Affine g = lit_affine(lits_[i]);
+                    f.mask ^= g.mask;
+                    f.flip ^= g.flip;
+                }
+            add_z8(f, std::popcount(s) % 2 == 1 ? per : -per);
+        }
+        return;
+    }
+    default: break;
+    }
+    WHITTLE_ASSERT(false && "RegionBuilder: not a region op");
+}
+
+RegionPolynomial RegionBuilder::finish() {
+    p_.out_parity.resize(state_.size());
+    p_.out_flip.resize(state_.size());
+    for (size_t i = 0; i < state_.size(); ++i) {
+        p_.out_parity[i] = state_[i].mask;
+        p_.out_flip[i] = state_[i].flip;
+    }
+    return std::move(p_);
+}
+
+int eval_z8(const std::vector<Z8Term>& terms, uint64_t x) {
+    int v = 0;
+    for (const Z8Term& t : terms) v += t.coef * (std::popcount(t.parity & x) & 1);
+    return v & 7;
+}
+
+namespace {
+
+/// h = f - g, merged by parity.
+std::vector<Z8Term> difference(const std::vector<Z8Term>& f, const std::vector<Z8Term>& g) {
+    std::map<uint64_t, int> m;
+    for (const Z8Term& t : f) m[t.parity] += t.coef;
+    for (const Z8Term& t : g) m[t.parity] -= t.coef;
+    std::vector<Z8Term> h;
+    for (const auto& [p, c] : m)
+        if (((c % 8) + 8) % 8 != 0) h.push_back({p, ((c % 8) + 8) % 8});
+    return h;
+}
+
+}  // namespace
+
+std::optional<EvenQuadratic> even_difference(uint32_t n, const std::vector<Z8Term>& f, const std::vector<Z8Term>& g) {
+    const std::vector<Z8Term> h = difference(f, g);
+    EvenQuadratic q;
+    q.lin.assign(n, 0);
+    for (uint32_t i = 0; i < n; ++i) {
+        q.lin[i] = eval_z8(h, uint64_t(1) << i);
+        if (q.lin[i] & 1) return std::nullopt;
+    }
+    std::vector<uint64_t> pair_mask(n, 0);  // bit j of pair_mask[i]: coefficient 4 on x_i x_j
+    for (uint32_t i = 0; i < n; ++i)
+        for (uint32_t j = i + 1; j < n; ++j) {
+            const int d = (eval_z8(h, (uint64_t(1) << i) | (uint64_t(1) << j)) - q.lin[i] - q.lin[j] + 16) & 7;
+            if (d == 4) {
+                q.cz.emplace_back(i, j);
+                pair_mask[i] |= uint64_t(1) << j;
+            } else if (d != 0) {
+                return std::nullopt;
+            }
+        }
+    auto quad = [&](uint64_t x) {
+        int v = 0;
+        for (uint64_t r = x; r; r &= r - 1) {
+            const uint32_t i = uint32_t(std::countr_zero(r));
+            v += q.lin[i] + 4 * std::popcount(pair_mask[i] & x);
+        }
+        return v & 7;
+    };
+    for (uint32_t i = 0; i < n; ++i)
+        for (uint32_t j = i + 1; j < n; ++j)
+            for (uint32_t k = j + 1; k < n; ++k) {
+                const uint64_t x = (uint64_t(1) << i) | (uint64_t(1) << j) | (uint64_t(1) << k);
+                if (eval_z8(h, x) != quad(x)) return std::nullopt;
+            }
+    return q;
+}
+
+bool same_z8_function(uint32_t n, const std::vector<Z8Term>& f, const std::vector<Z8Term>& g) {
+    const std::vector<Z8Term> h = difference(f, g);
+    if (h.empty()) return true;
+    for (uint32_t i = 0; i < n; ++i) {
+        if (eval_z8(h, uint64_t(1) << i) != 0) return false;
+        for (uint32_t j = i + 1; j < n; ++j) {
+            if (eval_z8(h, (uint64_t(1) << i) | (uint64_t(1) << j)) != 0) return false;
+            for (uint32_t k = j + 1; k < n; ++k)
+                if (eval_z8(h, (uint64_t(1) << i) | (uint64_t(1) << j) | (uint64_t(1) << k)) != 0) return false;
+        }
+    }
+    return true;
+}
+
+}  // namespace whittle::tcount
