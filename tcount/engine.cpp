@@ -24,15 +24,10 @@ enum WireState : uint8_t { NotYet = 0, Open = 1, Closed = 2 };
 
 bool in_region(const Op& op) { return is_region_op(op) && op.pair == 0 && op.half == ir::PairHalf::None; }
 
-/// T gates an op costs once lowered (CS: 3, CCZ: 7, the textbook forms).
+/// T gates an op costs once lowered: phases and parities by odd multiples of pi/4.
 int64_t t_cost(const Op& op) {
     const int e = op.angle.eighths();
-    if (op.kind == OpKind::Parity) return e >= 0 && e % 2 == 1;
-    if (op.kind != OpKind::Phase) return 0;
-    const size_t k = op.controls.size();
-    if (k == 1) return e >= 0 && e % 2 == 1;
-    if (k == 2) return e == 2 || e == 6 ? 3 : 0;
-    if (k == 3) return e == 4 ? 7 : 0;
+    if (op.kind == OpKind::Parity || (op.kind == OpKind::Phase && op.controls.size() == 1)) return e >= 0 && e % 2 == 1;
     return 0;
 }
 
@@ -43,7 +38,7 @@ int64_t cnot_cost(const Op& op) {
     case OpKind::X: return k == 1;
     case OpKind::Swap: return 3;
     case OpKind::Parity: return 2 * (k - 1);
-    case OpKind::Phase: return k == 2 ? (op.angle.eighths() == 4 ? 1 : 2) : k == 3 ? 6 : 0;
+    case OpKind::Phase: return k == 2;  // CZ
     default: return 0;
     }
 }

@@ -32,12 +32,11 @@ bool is_region_op(const Op& op) {
     case OpKind::Swap: return op.controls.empty();
     case OpKind::Parity: return !op.controls.empty();
     case OpKind::Phase: {
+        // One literal, any angle; CZ. (CS and CCZ would be read fine, but they are not T gates
+        // yet: to-target lowers them, and the T-counts compared here are of the ops as they are.)
         const size_t k = op.controls.size();
         if (k == 1) return true;
-        const int e = op.angle.eighths();
-        if (k == 2) return e >= 0 && e % 2 == 0;
-        if (k == 3) return e == 0 || e == 4;
-        return false;
+        return k == 2 && op.angle.eighths() % 4 == 0;
     }
     case OpKind::H:
     case OpKind::Y:

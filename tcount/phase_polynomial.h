@@ -38,8 +38,8 @@ struct RegionPolynomial {
 };
 
 /// Ops a region may hold: unconditioned X with at most one control, uncontrolled Swap, Parity,
-/// Phase on one literal, Phase on two literals by a multiple of pi/2 (CS, CZ), on three by pi
-/// (CCZ). Anything else (H above all) ends the region on its wires.
+/// Phase on one literal, CZ. Anything else (H above all) ends the region on its wires.
+/// (RegionBuilder also reads CS and CCZ, Phase on 2 or 3 literals by multiples of pi/2 or pi.)
 bool is_region_op(const ir::Op& op);
 
 /// Builds a RegionPolynomial op by op. `var_of(wire)` is the region variable of a wire, assigned
