@@ -352,6 +352,14 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
     std::vector<uint8_t> state(nq, NotYet);
     std::vector<uint32_t> var_of_wire(nq, 0);
     std::vector<uint32_t> var_wire, region, after, wires, touched;
+    enum Role : uint8_t { Joined, Before, After, Hoisted };
+    struct Scanned {
+        uint32_t idx;
+        Role role;
+    };
+    std::vector<Scanned> scan;          // the ops read while growing a region, in order
+    std::vector<uint32_t> needed(nq, 0);  // wire -> epoch at which it was marked
+    uint32_t epoch = 0;
     uint64_t work_left = settings.total_work_budget;
     Pending pend;
     pend.total = c.ops.size();
@@ -367,13 +375,12 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
         // it and closes its wires (what follows on them depends on an op outside the region).
         region.clear();
         var_wire.clear();
-        after.clear();
         touched.clear();
-        size_t open = 0, scanned = 0;
-        while (!pend.done() && scanned < settings.scan_window) {
+        scan.clear();
+        size_t open = 0;
+        while (!pend.done() && scan.size() < settings.scan_window) {
             const uint32_t idx = pend.peek();
             pend.advance();
-            ++scanned;
             const Op& op = c.ops[idx];
             wires.clear();
             op.wires(wires);
@@ -395,10 +402,11 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
                         touched.push_back(w);
                     }
                 region.push_back(idx);
+                scan.push_back({idx, Joined});
                 continue;
             }
             if (all_new) {
-                plan.push_back(idx);
+                scan.push_back({idx, Before});
                 continue;
             }
             for (uint32_t w : wires) {
@@ -406,7 +414,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
                 if (state[w] == NotYet) touched.push_back(w);
                 state[w] = Closed;
             }
-            after.push_back(idx);
+            scan.push_back({idx, After});
             if (open == 0) break;
         }
         for (uint32_t w : touched) state[w] = NotYet;
@@ -415,14 +423,36 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
             ++stats.regions;
             nr = rebuild_region(c, region, var_wire, var_of_wire, settings, stats, work_left);
         }
+        after.clear();
         if (nr) {
             ++stats.regions_rewritten;
             stats.t_saved += nr->t_old - nr->t_new;
             stats.cnot_saved += nr->cnot_old - nr->cnot_new;
+            // Only the ops read before the region that share a wire with it (or with such an op
+            // after them) must precede it; the others keep their places among the ops after it.
+            ++epoch;
+            for (size_t k = scan.size(); k-- > 0;) {
+                if (scan[k].role == After) continue;
+                wires.clear();
+                c.ops[scan[k].idx].wires(wires);
+                bool need = scan[k].role == Joined;
+                for (uint32_t w : wires) need |= needed[w] == epoch;
+                if (!need) continue;
+                if (scan[k].role == Before) scan[k].role = Hoisted;
+                for (uint32_t w : wires) needed[w] = epoch;
+            }
+            for (const Scanned& e : scan)
+                if (e.role == Hoisted) plan.push_back(e.idx);
             plan.push_back(kRegionMark | uint32_t(rebuilt.size()));
             rebuilt.push_back(std::move(*nr));
+            for (const Scanned& e : scan)
+                if (e.role == Before || e.role == After) after.push_back(e.idx);
         } else {
-            for (uint32_t idx : region) plan.push_back(idx);
+            // The region stays: its ops and those before it in their order, the others after.
+            for (const Scanned& e : scan) {
+                if (e.role == After) after.push_back(e.idx);
+                else plan.push_back(e.idx);
+            }
         }
         // What was read but not placed comes next, then what was not read.
         after.insert(after.end(), pend.front.begin() + std::ptrdiff_t(pend.fpos), pend.front.end());
