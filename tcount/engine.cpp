@@ -349,8 +349,15 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
     std::vector<uint32_t> plan;  // op index, or kRegionMark | index into `rebuilt`
     plan.reserve(c.ops.size());
     std::vector<Rebuilt> rebuilt;
-    std::vector<uint8_t> state(nq, NotYet);
-    std::vector<uint32_t> var_of_wire(nq, 0);
+    // Wire nq stands for the classical bits: measurements write them and conditioned ops read them,
+    // so those keep their order among themselves like ops on one wire.
+    std::vector<uint8_t> state(nq + 1, NotYet);
+    std::vector<uint32_t> var_of_wire(nq + 1, 0);
+    auto wires_of = [&](const Op& op, std::vector<uint32_t>& out) {
+        out.clear();
+        op.wires(out);
+        if (op.kind == OpKind::Measure || op.is_conditioned()) out.push_back(nq);
+    };
     std::vector<uint32_t> var_wire, region, after, wires, touched;
     enum Role : uint8_t { Joined, Before, After, Hoisted };
     struct Scanned {
@@ -358,7 +365,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
         Role role;
     };
     std::vector<Scanned> scan;          // the ops read while growing a region, in order
-    std::vector<uint32_t> needed(nq, 0);  // wire -> epoch at which it was marked
+    std::vector<uint32_t> needed(nq + 1, 0);  // wire -> epoch at which it was marked
     uint32_t epoch = 0;
     uint64_t work_left = settings.total_work_budget;
     Pending pend;
@@ -382,8 +389,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
             const uint32_t idx = pend.peek();
             pend.advance();
             const Op& op = c.ops[idx];
-            wires.clear();
-            op.wires(wires);
+            wires_of(op, wires);
             bool any_closed = false, all_new = true;
             uint32_t fresh = 0;
             for (uint32_t w : wires) {
@@ -433,8 +439,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
             ++epoch;
             for (size_t k = scan.size(); k-- > 0;) {
                 if (scan[k].role == After) continue;
-                wires.clear();
-                c.ops[scan[k].idx].wires(wires);
+                wires_of(c.ops[scan[k].idx], wires);
                 bool need = scan[k].role == Joined;
                 for (uint32_t w : wires) need |= needed[w] == epoch;
                 if (!need) continue;

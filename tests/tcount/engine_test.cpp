@@ -278,3 +278,25 @@ TEST_CASE("without the Clifford correction the rewrite of a GF(2^4) multiplier i
     CHECK(!even->cz.empty());
     CHECK(passes::check_equivalence(in, wrong).verdict == passes::Verdict::NotEquivalent);
 }
+
+TEST_CASE("a measurement and the ops conditioned on it keep their order around a rebuilt region") {
+    // The conditioned Z touches only a wire the region has not reached yet, so as a quantum op it
+    // could move ahead of the region; but it reads the bit the measurement (after the region's
+    // start) writes. The two T on wire 0 merge, so the region is rebuilt.
+    ir::Circuit c = test::wires(3);
+    const int32_t m = int32_t(c.add_creg("m", 1, true));
+    Op cond = Op::phase(Angle::pi_times(1), {Lit::pos(2)});
+    cond.set_condition(m, 1);
+    c.ops = {ph(0, 1), cx(0, 1), ph(1, 1), ph(0, 1), h(1), Op::measure(1, 0), cond, cx(0, 2), ph(2, 1), cx(0, 2)};
+    ir::Circuit r = c;
+    tcount::EngineStats st;
+    CHECK(tcount::reduce_t_count(r, {}, st));
+    CHECK(t_of(r) < t_of(c));
+    size_t measure_at = 0, cond_at = 0;
+    for (size_t i = 0; i < r.ops.size(); ++i) {
+        if (r.ops[i].kind == OpKind::Measure) measure_at = i;
+        if (r.ops[i].is_conditioned()) cond_at = i;
+    }
+    CHECK(measure_at < cond_at);
+    CHECK(passes::check_equivalence(c, r).verdict == passes::Verdict::Equivalent);
+}
