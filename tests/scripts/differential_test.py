@@ -246,13 +246,19 @@ def t_network_program(rng):
     prog = Program(n, 0, False)
     data = list(range(n))
     products = pick(rng, data, rng.choice([1, 2, 2, 3]))
+    # One in three is shaped like a GF(2^n) multiplier: Toffolis from the other wires into the
+    # product wires and only CNOT, X and Z among the product wires between the stretches.
+    factors = [w for w in data if w not in products]
+    multiplier = rng.random() < 0.35 and len(products) >= 2 and len(factors) >= 2
     for _ in range(rng.randint(5, 16)):
         r = rng.random()
+        if multiplier:
+            r = 0.0 if r < 0.6 else 0.7
         if r < 0.4:  # a stretch of Toffolis into one product wire
-            t = rng.choice(products if rng.random() < 0.85 else data)
+            t = rng.choice(products if rng.random() < 0.85 or multiplier else data)
             for _ in range(rng.randint(1, 4)):
-                c = pick(rng, [w for w in data if w != t], 2)
-                prog.mcx(t, lits_of(rng, c, neg_rate=0.1))
+                c = pick(rng, factors if multiplier else [w for w in data if w != t], 2)
+                prog.mcx(t, lits_of(rng, c, neg_rate=0.0 if multiplier else 0.1))
         elif r < 0.55:
             ws = pick(rng, data, 3)
             lit = lits_of(rng, ws, neg_rate=0.1)
