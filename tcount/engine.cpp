@@ -7,6 +7,7 @@
 #include <unordered_map>
 
 #include "ir/error.h"
+#include "ir/op_prefix_release.h"
 #include "tcount/gf2.h"
 #include "tcount/hadamard_frames.h"
 #include "tcount/parity_network.h"
@@ -45,6 +46,7 @@ int64_t cnot_cost(const Op& op) {
 
 struct Rebuilt {
     std::vector<Op> ops;
+    std::vector<uint32_t> replaces;  ///< the region's old ops
     Angle global_phase;
     int64_t t_old = 0, t_new = 0, cnot_old = 0, cnot_new = 0;
 };
@@ -273,11 +275,18 @@ std::optional<Rebuilt> rebuild_region(const ir::Circuit& c, const std::vector<ui
             ts.work_budget = std::min(ts.work_budget, work_left);
             ToddResult tr = todd_reduce(odd, width, ts);
             work_left -= std::min(work_left, tr.work);
+            ++stats.todd_runs;
+            stats.todd_work += tr.work;
             if (tr.budget_exhausted) ++stats.todd_out_of_budget;
             stats.todd_steps += size_t(tr.steps);
             cols = std::move(tr.columns);
         }
     }
+    // Each column is one T gate. When that is all the region has already, only fewer CNOTs could
+    // be gained: worth a resynthesis on small regions only.
+    if (int64_t(cols.size()) >= r.t_old &&
+        (width > settings.max_cnot_only_width || poly.z8.size() + poly.other.size() > settings.max_cnot_only_terms))
+        return std::nullopt;
     // The phase is f = (one T per column) + an even part, which is f minus the columns, computed
     // exactly as a quadratic form (even_difference); it is never assumed to vanish.
     auto as_terms = [](const std::vector<uint64_t>& cs) {
@@ -296,9 +305,12 @@ std::optional<Rebuilt> rebuild_region(const ir::Circuit& c, const std::vector<ui
 
     // Two ways to build the region; the one with fewer CNOTs is kept (both place one T per column).
     std::vector<Op> full, kept;
-    const int64_t full_cnots = synthesize_full(poly, cols, *even, var_wire, full);
     const int64_t kept_cnots = synthesize_on_skeleton(c, region, var_of_wire, poly, cols, *even, var_wire, kept);
-    const bool use_kept = kept_cnots >= 0 && kept_cnots < full_cnots;
+    const bool try_full = kept_cnots < 0 || (width <= settings.max_full_width &&
+                                             poly.z8.size() + poly.other.size() <= settings.max_full_terms);
+    const int64_t full_cnots = try_full ? synthesize_full(poly, cols, *even, var_wire, full) : -1;
+    if (kept_cnots < 0 && full_cnots < 0) return std::nullopt;
+    const bool use_kept = kept_cnots >= 0 && (full_cnots < 0 || kept_cnots < full_cnots);
     r.ops = std::move(use_kept ? kept : full);
     r.cnot_new = use_kept ? kept_cnots : full_cnots;
     const ir::SourceLoc loc = c.ops[region.front()].loc;
@@ -384,6 +396,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
         var_wire.clear();
         touched.clear();
         scan.clear();
+        scan.reserve(settings.scan_window);
         size_t open = 0;
         while (!pend.done() && scan.size() < settings.scan_window) {
             const uint32_t idx = pend.peek();
@@ -423,6 +436,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
             scan.push_back({idx, After});
             if (open == 0) break;
         }
+        stats.ops_read += scan.size();
         for (uint32_t w : touched) state[w] = NotYet;
         std::optional<Rebuilt> nr;
         if (region.size() >= 2) {
@@ -449,6 +463,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
             for (const Scanned& e : scan)
                 if (e.role == Hoisted) plan.push_back(e.idx);
             plan.push_back(kRegionMark | uint32_t(rebuilt.size()));
+            nr->replaces = region;
             rebuilt.push_back(std::move(*nr));
             for (const Scanned& e : scan)
                 if (e.role == Before || e.role == After) after.push_back(e.idx);
@@ -465,16 +480,29 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
         pend.fpos = 0;
     }
     if (rebuilt.empty()) return changed;
+    // The new list. The plan follows the old order but for moves within a scan window, so the old
+    // list's pages go back to the kernel behind the lowest op not yet placed (op_prefix_release.h).
     std::vector<Op> out;
-    out.reserve(plan.size());
+    out.reserve(plan.size() + c.ops.size() / 64);
+    ir::OpPrefixReleaser releaser(c.ops);
+    std::vector<uint8_t> placed(c.ops.size(), 0);
+    size_t low = 0;
     for (uint32_t p : plan) {
         if (!(p & kRegionMark)) {
             out.push_back(std::move(c.ops[p]));
-            continue;
+            placed[p] = 1;
+        } else {
+            Rebuilt& r = rebuilt[p & ~kRegionMark];
+            c.global_phase += r.global_phase;
+            for (Op& op : r.ops) out.push_back(std::move(op));
+            for (uint32_t idx : r.replaces) {
+                c.ops[idx] = Op();
+                placed[idx] = 1;
+            }
+            r = Rebuilt();
         }
-        Rebuilt& r = rebuilt[p & ~kRegionMark];
-        c.global_phase += r.global_phase;
-        for (Op& op : r.ops) out.push_back(std::move(op));
+        while (low < placed.size() && placed[low]) ++low;
+        releaser.consumed(low);
     }
     c.ops = std::move(out);
     return true;

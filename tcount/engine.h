@@ -16,17 +16,28 @@ struct EngineSettings {
     size_t scan_window = 4096;        ///< ops read while growing one region, at most
     uint32_t max_todd_width = 48;     ///< regions wider than this keep their T gates (resynthesis only)
     size_t max_todd_columns = 320;    ///< ... and those with more T terms than this
+    /// A region whose T gates cannot drop is rebuilt (for fewer CNOTs) only up to this width and
+    /// this many phase terms: resynthesis is most of the engine's time on large generic circuits.
+    uint32_t max_cnot_only_width = 24;
+    size_t max_cnot_only_terms = 96;
+    /// The whole-region parity network is tried up to this width and term count; larger regions
+    /// keep their CNOT skeleton with the terms placed on it (much cheaper to build).
+    uint32_t max_full_width = 32;
+    size_t max_full_terms = 256;
     ToddSettings todd;                ///< effort per region
     uint64_t total_work_budget = uint64_t(16) << 30;  ///< effort for the whole circuit, then regions are left alone
 };
 
 struct EngineStats {
-    size_t regions = 0;            ///< regions holding at least one phase or CNOT
+    size_t regions = 0;            ///< regions of two ops or more
+    size_t ops_read = 0;           ///< ops read while growing regions (an op can be read by several)
     size_t regions_rewritten = 0;
     size_t hadamards_removed = 0;  ///< by the frame exchange
     int64_t t_saved = 0;
     int64_t cnot_saved = 0;        ///< over the rewritten regions (may be negative when T fell)
     size_t todd_steps = 0;
+    size_t todd_runs = 0;          ///< regions the reduction ran on
+    uint64_t todd_work = 0;        ///< its effort, in words of elimination
     size_t todd_out_of_budget = 0; ///< regions whose reduction stopped at the effort cap
     size_t skipped_large = 0;      ///< regions too wide or with too many T terms for the reduction
 };

@@ -4,6 +4,7 @@
 #include <bit>
 #include <cstddef>
 #include <cstdint>
+#include <algorithm>
 #include <vector>
 
 namespace whittle::tcount {
@@ -18,6 +19,7 @@ public:
     bool get(size_t i) const { return words_[i >> 6] >> (i & 63) & 1; }
     void set(size_t i) { words_[i >> 6] |= uint64_t(1) << (i & 63); }
     void flip(size_t i) { words_[i >> 6] ^= uint64_t(1) << (i & 63); }
+    void reset() { std::fill(words_.begin(), words_.end(), 0); }
     void assign(size_t i, bool v) {
         if (get(i) != v) flip(i);
     }
@@ -66,14 +68,16 @@ public:
         reduce(v, tag, work);
         const size_t p = v.first();
         if (p == v.size()) return false;
-        rows_.push_back({v, tag, p});
+        if (size_ == rows_.size()) rows_.push_back({v, tag, p});
+        else rows_[size_] = {v, tag, p};  // reuses the row's storage after clear()
         if (p >= pivot_row_.size()) pivot_row_.resize(p + 1, kNone);
-        pivot_row_[p] = rows_.size() - 1;
+        pivot_row_[p] = size_++;
         return true;
     }
     /// Reduces v (and its tag) by the basis, lowest pivots first.
     void reduce(BitVec& v, BitVec& tag, uint64_t& work) const {
         for (size_t p = v.first(); p < v.size();) {
+            ++work;  // each entry visited
             const size_t r = p < pivot_row_.size() ? pivot_row_[p] : kNone;
             if (r == kNone) {
                 p = next_set(v, p + 1);
@@ -85,7 +89,13 @@ public:
             p = next_set(v, p + 1);
         }
     }
-    const std::vector<Row>& rows() const { return rows_; }
+    /// Empties the basis, keeping its storage for the next use.
+    void clear() {
+        for (size_t r = 0; r < size_; ++r) pivot_row_[rows_[r].pivot] = kNone;
+        size_ = 0;
+    }
+    size_t size() const { return size_; }
+    const Row& row(size_t r) const { return rows_[r]; }
 
 private:
     static constexpr size_t kNone = ~size_t(0);
@@ -101,6 +111,7 @@ private:
         }
     }
     std::vector<Row> rows_;
+    size_t size_ = 0;
     std::vector<size_t> pivot_row_;
 };
 

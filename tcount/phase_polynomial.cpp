@@ -187,55 +187,71 @@ std::vector<Z8Term> difference(const std::vector<Z8Term>& f, const std::vector<Z
     return h;
 }
 
+/// The multilinear form of sum c_p (p . x) mod 8. With (p . x) read as an integer,
+/// x_1 ^ ... ^ x_k = sum x_i - 2 sum x_i x_j + 4 sum x_i x_j x_l - 8 ... (exact over the integers), so
+/// mod 8 the function is sum_i lin_i x_i + sum_{i<j} pair_ij x_i x_j + 4 sum_{i<j<l} cubic_ijl x_i x_j x_l
+/// with lin_i = sum of c over the terms holding i, pair_ij = -2 * that over the terms holding i and
+/// j, and cubic_ijl = the parity of the odd c over the terms holding all three. A function Z_2^n ->
+/// Z_8 has exactly one multilinear form, so two sums of parities are the same function exactly
+/// when these agree.
+struct Expansion {
+    uint32_t n;
+    std::vector<int> lin;          ///< mod 8
+    std::vector<int> pair;         ///< [i * n + j], i < j, mod 8
+    std::vector<uint64_t> cubic;   ///< [i * n + j], i < j: bit l set when cubic_ijl is 1 (l != i, j)
+};
+
+Expansion expand(uint32_t n, const std::vector<Z8Term>& terms) {
+    Expansion e{n, std::vector<int>(n, 0), std::vector<int>(size_t(n) * n, 0), std::vector<uint64_t>(size_t(n) * n, 0)};
+    for (const Z8Term& t : terms) {
+        for (uint64_t a = t.parity; a; a &= a - 1) {
+            const uint32_t i = uint32_t(std::countr_zero(a));
+            e.lin[i] += t.coef;
+            for (uint64_t b = a & (a - 1); b; b &= b - 1) {
+                const size_t k = size_t(i) * n + uint32_t(std::countr_zero(b));
+                e.pair[k] -= 2 * t.coef;
+                if (t.coef & 1) e.cubic[k] ^= t.parity;
+            }
+        }
+    }
+    for (int& v : e.lin) v = ((v % 8) + 8) % 8;
+    for (int& v : e.pair) v = ((v % 8) + 8) % 8;
+    for (uint32_t i = 0; i < n; ++i)
+        for (uint32_t j = i + 1; j < n; ++j) e.cubic[size_t(i) * n + j] &= ~((uint64_t(1) << i) | (uint64_t(1) << j));
+    return e;
+}
+
+bool no_cubic(const Expansion& e) {
+    for (uint64_t m : e.cubic)
+        if (m) return false;
+    return true;
+}
+
 }  // namespace
 
 std::optional<EvenQuadratic> even_difference(uint32_t n, const std::vector<Z8Term>& f, const std::vector<Z8Term>& g) {
-    const std::vector<Z8Term> h = difference(f, g);
+    const Expansion e = expand(n, difference(f, g));
+    if (!no_cubic(e)) return std::nullopt;
     EvenQuadratic q;
-    q.lin.assign(n, 0);
+    q.lin = e.lin;
     for (uint32_t i = 0; i < n; ++i) {
-        q.lin[i] = eval_z8(h, uint64_t(1) << i);
         if (q.lin[i] & 1) return std::nullopt;
-    }
-    std::vector<uint64_t> pair_mask(n, 0);  // bit j of pair_mask[i]: coefficient 4 on x_i x_j
-    for (uint32_t i = 0; i < n; ++i)
         for (uint32_t j = i + 1; j < n; ++j) {
-            const int d = (eval_z8(h, (uint64_t(1) << i) | (uint64_t(1) << j)) - q.lin[i] - q.lin[j] + 16) & 7;
-            if (d == 4) {
-                q.cz.emplace_back(i, j);
-                pair_mask[i] |= uint64_t(1) << j;
-            } else if (d != 0) {
-                return std::nullopt;
-            }
+            const int c = e.pair[size_t(i) * n + j];
+            if (c == 4) q.cz.emplace_back(i, j);
+            else if (c != 0) return std::nullopt;
         }
-    auto quad = [&](uint64_t x) {
-        int v = 0;
-        for (uint64_t r = x; r; r &= r - 1) {
-            const uint32_t i = uint32_t(std::countr_zero(r));
-            v += q.lin[i] + 4 * std::popcount(pair_mask[i] & x);
-        }
-        return v & 7;
-    };
-    for (uint32_t i = 0; i < n; ++i)
-        for (uint32_t j = i + 1; j < n; ++j)
-            for (uint32_t k = j + 1; k < n; ++k) {
-                const uint64_t x = (uint64_t(1) << i) | (uint64_t(1) << j) | (uint64_t(1) << k);
-                if (eval_z8(h, x) != quad(x)) return std::nullopt;
-            }
+    }
     return q;
 }
 
 bool same_z8_function(uint32_t n, const std::vector<Z8Term>& f, const std::vector<Z8Term>& g) {
-    const std::vector<Z8Term> h = difference(f, g);
-    if (h.empty()) return true;
-    for (uint32_t i = 0; i < n; ++i) {
-        if (eval_z8(h, uint64_t(1) << i) != 0) return false;
-        for (uint32_t j = i + 1; j < n; ++j) {
-            if (eval_z8(h, (uint64_t(1) << i) | (uint64_t(1) << j)) != 0) return false;
-            for (uint32_t k = j + 1; k < n; ++k)
-                if (eval_z8(h, (uint64_t(1) << i) | (uint64_t(1) << j) | (uint64_t(1) << k)) != 0) return false;
-        }
-    }
+    const Expansion e = expand(n, difference(f, g));
+    if (!no_cubic(e)) return false;
+    for (int v : e.lin)
+        if (v) return false;
+    for (int v : e.pair)
+        if (v) return false;
     return true;
 }
 

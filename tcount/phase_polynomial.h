@@ -89,16 +89,14 @@ struct EvenQuadratic {
     std::vector<std::pair<uint32_t, uint32_t>> cz;   ///< pairs i < j with coefficient 4
 };
 
-/// d = f - g mod 8 when it is an even quadratic form; nullopt otherwise. Computed from d at the
-/// points of weight 1 and 2 and then checked at every point of weight 3: f and g are sums of
-/// parities, and a parity read as an integer is a polynomial of degree at most 3 mod 8
-/// (x ^ y ^ z ... = sum x - 2 sum xy + 4 sum xyz - 8 ...), so two such functions that agree on all
-/// points of weight <= 3 agree everywhere (Moebius inversion determines the coefficients of degree
-/// <= 3 from those points). The result is exact, not sampled.
+/// d = f - g mod 8 when it is an even quadratic form; nullopt otherwise. Exact: read from the
+/// multilinear form of d mod 8 (a parity read as an integer is x ^ y ^ ... = sum x - 2 sum xy +
+/// 4 sum xyz - 8 ..., so every sum of parities is a polynomial of degree at most 3 mod 8, and a
+/// function Z_2^n -> Z_8 has exactly one multilinear form): no cubic part, even linear part, pair
+/// coefficients 0 or 4. Cost: sum over the terms of their weight squared, plus n^2.
 std::optional<EvenQuadratic> even_difference(uint32_t width, const std::vector<Z8Term>& f, const std::vector<Z8Term>& g);
 
-/// True when the two sums of parities are the same function mod 8 (same argument: every point of
-/// weight <= 3).
+/// True when the two sums of parities are the same function mod 8 (same multilinear form).
 bool same_z8_function(uint32_t width, const std::vector<Z8Term>& f, const std::vector<Z8Term>& g);
 
 }  // namespace whittle::tcount

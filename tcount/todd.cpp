@@ -29,7 +29,6 @@
 
 #include <algorithm>
 #include <bit>
-#include <unordered_map>
 
 #include "tcount/gf2.h"
 
@@ -41,21 +40,38 @@ size_t sym_index(uint32_t a, uint32_t b, uint32_t n) { return size_t(a) * (2 * s
 
 struct Candidate {
     uint64_t z = 0;
-    std::vector<std::pair<uint32_t, uint32_t>> pairs;  ///< columns k < l with a_k ^ a_l = z
-    int column = -1;                                    ///< a column equal to z, if any
-    int bound = 0;                                      ///< most columns a y could remove
+    uint32_t lo = 0, hi = 0;  ///< its pairs of columns k < l with a_k ^ a_l = z: sums[lo, hi)
+    int column = -1;          ///< a column equal to z, if any
+    int bound = 0;            ///< most columns a y could remove
+};
+
+struct PairSum {
+    uint64_t z;
+    uint32_t k, l;
+};
+
+/// Scratch space of the candidate search, kept between candidates (no allocation per candidate).
+struct Scratch {
+    TaggedEchelon residues;
+    BitVec v, tag;
 };
 
 /// N_z = M^{-1}(V_z): K0 plus the preimages of the part of V_z inside the image of M (see the top).
 std::vector<BitVec> admissible(const TaggedEchelon& image, const std::vector<BitVec>& k0, uint64_t z, uint32_t n, size_t m,
-                               uint64_t& work) {
+                               Scratch& s, uint64_t& work) {
     const size_t tri = size_t(n) * (n + 1) / 2;
     const uint32_t p = uint32_t(std::countr_zero(z));
     std::vector<BitVec> ys = k0;
-    TaggedEchelon residues;
+    s.residues.clear();
+    if (s.v.size() != tri) s.v = BitVec(tri);
+    if (s.tag.size() != m) s.tag = BitVec(m);
+    work += (n + 1) * ((tri + m) / 64 + 1);
     for (uint32_t c = 0; c <= n; ++c) {
         if (c == p) continue;
-        BitVec v(tri);
+        BitVec& v = s.v;
+        BitVec& tag = s.tag;
+        v.reset();
+        tag.reset();
         if (c == n) {  // z z^T
             for (uint64_t r = z; r; r &= r - 1) {
                 const uint32_t a = uint32_t(std::countr_zero(r));
@@ -68,9 +84,8 @@ std::vector<BitVec> admissible(const TaggedEchelon& image, const std::vector<Bit
                 else if (a > c) v.set(sym_index(c, a, n));
             }
         }
-        BitVec tag(m);
         image.reduce(v, tag, work);
-        if (!residues.insert(v, tag, work) && tag.any()) ys.push_back(tag);
+        if (!s.residues.insert(v, tag, work) && tag.any()) ys.push_back(tag);
     }
     return ys;
 }
@@ -117,7 +132,7 @@ BitVec greedy_solution(const std::vector<BitVec>& ys, const std::vector<std::pai
     // Back substitution, highest pivot first; free coefficients are 0.
     BitVec c(e);
     std::vector<const TaggedEchelon::Row*> rows;
-    for (const auto& r : sys.rows()) rows.push_back(&r);
+    for (size_t r = 0; r < sys.size(); ++r) rows.push_back(&sys.row(r));
     std::sort(rows.begin(), rows.end(), [](const auto* a, const auto* b) { return a->pivot > b->pivot; });
     for (const auto* r : rows) {
         bool v = r->tag.get(0);
@@ -173,40 +188,47 @@ ToddResult descend(std::vector<uint64_t> cols, uint32_t n, const ToddSettings& s
         TaggedEchelon image;
         std::vector<BitVec> k0;
         image_of_columns(cols, n, image, k0, res.work);
-        // Candidates z = a_k ^ a_l.
+        // Candidates z = a_k ^ a_l (and each column alone, which y may clear), sorted by z.
+        std::vector<PairSum> sums;
+        sums.reserve(m * (m - 1) / 2 + m);
+        for (uint32_t k = 0; k < m; ++k)
+            for (uint32_t l = k + 1; l < m; ++l) sums.push_back({cols[k] ^ cols[l], k, l});
+        for (uint32_t k = 0; k < m; ++k) sums.push_back({cols[k], k, k});  // k == l: the column itself
+        res.work += sums.size();
+        std::sort(sums.begin(), sums.end(), [](const PairSum& a, const PairSum& b) {
+            return a.z != b.z ? a.z < b.z : (a.k != b.k ? a.k < b.k : a.l < b.l);
+        });
         std::vector<Candidate> cands;
-        {
-            std::unordered_map<uint64_t, size_t> at;
-            at.reserve(m * m / 2);
-            for (uint32_t k = 0; k < m; ++k)
-                for (uint32_t l = k + 1; l < m; ++l) {
-                    const uint64_t z = cols[k] ^ cols[l];
-                    auto [it, fresh] = at.emplace(z, cands.size());
-                    if (fresh) cands.push_back({z, {}, -1, 0});
-                    cands[it->second].pairs.emplace_back(k, l);
-                }
-            for (uint32_t k = 0; k < m; ++k)  // a column alone: y may clear it
-                if (at.emplace(cols[k], cands.size()).second) cands.push_back({cols[k], {}, -1, 0});
-            for (Candidate& c : cands) {
-                auto it = std::lower_bound(cols.begin(), cols.end(), c.z);
-                if (it != cols.end() && *it == c.z) c.column = int(it - cols.begin());
-                c.bound = 2 * int(c.pairs.size()) + (c.column >= 0 ? 1 : 0);
+        for (uint32_t lo = 0; lo < sums.size();) {
+            uint32_t hi = lo;
+            Candidate c;
+            c.z = sums[lo].z;
+            while (hi < sums.size() && sums[hi].z == c.z) {
+                if (sums[hi].k == sums[hi].l) c.column = int(sums[hi].k);
+                ++hi;
             }
-            std::sort(cands.begin(), cands.end(), [](const Candidate& a, const Candidate& b) {
-                return a.bound != b.bound ? a.bound > b.bound : a.z < b.z;
-            });
-
+            // The column entry (k == l) sorts after the pairs with the same z only by k; keep it
+            // out of the pair range by moving pairs first.
+            std::stable_partition(sums.begin() + lo, sums.begin() + hi, [](const PairSum& p) { return p.k != p.l; });
+            c.lo = lo;
+            c.hi = hi - (c.column >= 0 ? 1 : 0);
+            c.bound = 2 * int(c.hi - c.lo) + (c.column >= 0 ? 1 : 0);
+            cands.push_back(c);
+            lo = hi;
         }
+        std::stable_sort(cands.begin(), cands.end(), [](const Candidate& a, const Candidate& b) { return a.bound > b.bound; });
+        Scratch scratch;
         int best_gain = 0;
         std::vector<uint64_t> best_cols;
         for (const Candidate& cand : cands) {
             if (cand.bound <= best_gain || res.work > settings.work_budget) break;
             const uint64_t z = cand.z;
-            std::vector<BitVec> ys = admissible(image, k0, z, n, m, res.work);
+            std::vector<BitVec> ys = admissible(image, k0, z, n, m, scratch, res.work);
             if (ys.empty()) continue;
             const size_t e = ys.size();
             std::vector<std::pair<BitVec, bool>> wanted;
-            for (const auto& [k, l] : cand.pairs) {
+            for (uint32_t q = cand.lo; q < cand.hi; ++q) {
+                const uint32_t k = sums[q].k, l = sums[q].l;
                 BitVec g(e);
                 for (size_t i = 0; i < e; ++i)
                     if (ys[i].get(k) != ys[i].get(l)) g.set(i);
@@ -260,7 +282,8 @@ std::vector<std::vector<uint8_t>> admissible_updates(const std::vector<uint64_t>
     std::vector<BitVec> k0;
     image_of_columns(cols, n, image, k0, work);
     std::vector<std::vector<uint8_t>> out;
-    for (const BitVec& y : admissible(image, k0, z, n, cols.size(), work)) {
+    Scratch scratch;
+    for (const BitVec& y : admissible(image, k0, z, n, cols.size(), scratch, work)) {
         std::vector<uint8_t> v(cols.size());
         for (size_t j = 0; j < cols.size(); ++j) v[j] = y.get(j);
         out.push_back(std::move(v));
