@@ -28,6 +28,7 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
         s.max_full_width = 16;
         s.max_full_terms = 96;
     }
+    s.cnots_may_grow = opts.optimize_for == Metric::TCount;
     tcount::EngineStats st;
     result.changed = tcount::reduce_t_count(c, s, st);
     if (st.hadamards_removed) result.count("hadamards-removed", int64_t(st.hadamards_removed));

@@ -318,7 +318,9 @@ std::optional<Rebuilt> rebuild_region(const ir::Circuit& c, const std::vector<ui
         op.loc = loc;
         r.t_new += t_cost(op);
     }
-    if (!(r.t_new < r.t_old || (r.t_new == r.t_old && r.cnot_new < r.cnot_old))) return std::nullopt;
+    const bool better = (r.t_new < r.t_old && (settings.cnots_may_grow || r.cnot_new <= r.cnot_old)) ||
+                        (r.t_new == r.t_old && r.cnot_new < r.cnot_old);
+    if (!better) return std::nullopt;
 
     // The new circuit against the region's polynomial: same output map, same finer terms, the same
     // phase function mod 8 (exact, see same_z8_function) and the same constant.

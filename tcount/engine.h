@@ -24,6 +24,9 @@ struct EngineSettings {
     /// keep their CNOT skeleton with the terms placed on it (much cheaper to build).
     uint32_t max_full_width = 32;
     size_t max_full_terms = 256;
+    /// T first: a region with fewer T gates is taken even with more CNOTs. When false (the user
+    /// optimizes for two-qubit gates or depth), only when its CNOTs do not grow.
+    bool cnots_may_grow = true;
     ToddSettings todd;                ///< effort per region
     uint64_t total_work_budget = uint64_t(16) << 30;  ///< effort for the whole circuit, then regions are left alone
 };

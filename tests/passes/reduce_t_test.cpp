@@ -114,3 +114,24 @@ TEST_CASE("reduce-t leaves a circuit it cannot improve untouched and says so") {
     if (!r.changed) CHECK(copy.ops.size() == low.ops.size());
     CHECK(exactly_equivalent(low, copy));
 }
+
+TEST_CASE("with --optimize-for 2q, reduce-t takes fewer T only where the CNOTs do not grow") {
+    // On the GF(2^4) multiplier the reduced region needs more CNOTs than the folded one, so it is
+    // kept as it was; with the T metric it is rebuilt with fewer T.
+    Circuit c = toffolis_to_clifford_t(gf2_multiplier(4, 0x13).circuit);
+    passes::run_passes(c, {"gate-cancel", "fold-rotations", "gate-cancel"}, {});
+    const Resources before = count_resources(c);
+    passes::PassOptions o;
+    o.level = 3;
+    o.optimize_for = passes::Metric::TwoQubit;
+    Circuit two = c;
+    passes::reduce_t(two, o);
+    CHECK(count_resources(two).cnot_count <= before.cnot_count);
+    CHECK(count_resources(two).t_count <= before.t_count);
+    o.optimize_for = passes::Metric::TCount;
+    Circuit t = c;
+    passes::reduce_t(t, o);
+    CHECK(count_resources(t).t_count < before.t_count);
+    CHECK(exactly_equivalent(c, two));
+    CHECK(exactly_equivalent(c, t));
+}
