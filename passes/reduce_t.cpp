@@ -21,12 +21,12 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
         s.scan_window = 1024;
         s.max_width = 32;
         s.max_todd_columns = 160;
-        s.todd.work_budget = uint64_t(1) << 25;
-        s.total_work_budget = std::max<uint64_t>(uint64_t(1) << 25, 16 * ops);
+        s.todd.work_budget = uint64_t(1) << 24;
+        s.total_work_budget = std::max<uint64_t>(uint64_t(1) << 24, 16 * ops);
         s.max_cnot_only_width = 12;
         s.max_cnot_only_terms = 32;
-        s.max_full_width = 16;
-        s.max_full_terms = 96;
+        s.max_full_width = 24;
+        s.max_full_terms = 192;
     }
     s.cnots_may_grow = opts.optimize_for == Metric::TCount;
     tcount::EngineStats st;

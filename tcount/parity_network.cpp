@@ -1,6 +1,7 @@
 // Gray-code parity networks (Amy, Azimzadeh, Mosca 2018, arXiv:1712.01859; from memory) and CNOT synthesis.
 #include "tcount/parity_network.h"
 
+#include <algorithm>
 #include <bit>
 
 #include "ir/error.h"
@@ -43,6 +44,81 @@ struct Part {
 
 }  // namespace
 
+namespace {
+
+/// Row operations (row t ^= row c, recorded as {c, t}) making the matrix `a` (rows as bit masks)
+/// upper triangular with the diagonal kept at one: the lower half of Patel, Markov, Hayes 2008
+/// (arXiv:quant-ph/0302002, from memory of the method): per section of `m` columns, rows whose
+/// part in the section repeats an earlier row's are cleared by that row first, then Gaussian
+/// elimination finishes the section.
+std::vector<std::pair<uint32_t, uint32_t>> lower_sweep(std::vector<uint64_t>& a, uint32_t n, uint32_t m) {
+    std::vector<std::pair<uint32_t, uint32_t>> ops;
+    auto add = [&](uint32_t c, uint32_t t) {
+        a[t] ^= a[c];
+        ops.emplace_back(c, t);
+    };
+    for (uint32_t lo = 0; lo < n; lo += m) {
+        const uint32_t hi = std::min(n, lo + m);
+        const uint64_t sec = (hi - lo == 64 ? ~uint64_t(0) : ((uint64_t(1) << (hi - lo)) - 1)) << lo;
+        std::vector<int> first(size_t(1) << (hi - lo), -1);
+        for (uint32_t r = lo; r < n; ++r) {
+            const uint64_t pat = (a[r] & sec) >> lo;
+            if (!pat) continue;
+            if (first[pat] < 0) first[pat] = int(r);
+            else add(uint32_t(first[pat]), r);
+        }
+        for (uint32_t col = lo; col < hi; ++col) {
+            bool diag = a[col] >> col & 1;
+            for (uint32_t r = col + 1; r < n; ++r) {
+                if (!(a[r] >> col & 1)) continue;
+                if (!diag) {
+                    add(r, col);
+                    diag = true;
+                }
+                add(col, r);
+            }
+        }
+    }
+    return ops;
+}
+
+/// Row operations reducing the invertible `t` to the identity (Gauss-Jordan).
+std::vector<std::pair<uint32_t, uint32_t>> gauss_jordan(std::vector<uint64_t> t, uint32_t n) {
+    std::vector<std::pair<uint32_t, uint32_t>> red;
+    for (uint32_t c = 0; c < n; ++c) {
+        if (!(t[c] >> c & 1)) {
+            uint32_t r = c + 1;
+            while (r < n && !(t[r] >> c & 1)) ++r;
+            WHITTLE_ASSERT(r < n && "synthesize_linear: the target map is not invertible");
+            t[c] ^= t[r];
+            red.emplace_back(r, c);
+        }
+        for (uint32_t k = 0; k < n; ++k)
+            if (k != c && (t[k] >> c & 1)) {
+                t[k] ^= t[c];
+                red.emplace_back(c, k);
+            }
+    }
+    return red;
+}
+
+/// The same by Patel-Markov-Hayes: the lower sweep on t, then on the transpose of what is left
+/// (an upper triangular u; a row operation on u^T is a column operation on u).
+std::vector<std::pair<uint32_t, uint32_t>> pmh(std::vector<uint64_t> t, uint32_t n) {
+    uint32_t m = 1;
+    while ((uint32_t(1) << (2 * m)) <= n) ++m;  // about log2(n) / 2
+    std::vector<std::pair<uint32_t, uint32_t>> red = lower_sweep(t, n, m);
+    std::vector<uint64_t> ut(n, 0);
+    for (uint32_t i = 0; i < n; ++i)
+        for (uint64_t b = t[i]; b; b &= b - 1) ut[std::countr_zero(b)] |= uint64_t(1) << i;
+    const std::vector<std::pair<uint32_t, uint32_t>> upper = lower_sweep(ut, n, m);
+    // E' u^T = I with E' = R'_k ... R'_1 gives u^{-1} = R'_1^T ... R'_k^T; R^T swaps control and target.
+    for (auto it = upper.rbegin(); it != upper.rend(); ++it) red.emplace_back(it->second, it->first);
+    return red;
+}
+
+}  // namespace
+
 std::vector<NetOp> synthesize_linear(uint32_t n, std::vector<uint64_t> from, const std::vector<uint64_t>& to) {
     // from^{-1} by Gauss-Jordan on [from | I].
     std::vector<uint64_t> inv(n);
@@ -63,24 +139,17 @@ std::vector<NetOp> synthesize_linear(uint32_t n, std::vector<uint64_t> from, con
     std::vector<uint64_t> t(n, 0);
     for (uint32_t r = 0; r < n; ++r)
         for (uint64_t b = to[r]; b; b &= b - 1) t[r] ^= inv[std::countr_zero(b)];
-    // Reduce T to I by row operations (row k ^= row c is CNOT c -> k); the circuit is the
-    // reduction in reverse order (each row operation is its own inverse).
-    std::vector<NetOp> red;
-    for (uint32_t c = 0; c < n; ++c) {
-        if (!(t[c] >> c & 1)) {
-            uint32_t r = c + 1;
-            while (r < n && !(t[r] >> c & 1)) ++r;
-            WHITTLE_ASSERT(r < n && "synthesize_linear: the target map is not invertible");
-            t[c] ^= t[r];
-            red.push_back({NetOp::Kind::Cnot, r, c, {}});
-        }
-        for (uint32_t k = 0; k < n; ++k)
-            if (k != c && (t[k] >> c & 1)) {
-                t[k] ^= t[c];
-                red.push_back({NetOp::Kind::Cnot, c, k, {}});
-            }
+    // Row operations reducing T to I (row k ^= row c is CNOT c -> k), the shorter of two methods;
+    // the circuit is the reduction in reverse order (each row operation is its own inverse).
+    std::vector<std::pair<uint32_t, uint32_t>> red = gauss_jordan(t, n);
+    if (n >= 4) {
+        std::vector<std::pair<uint32_t, uint32_t>> other = pmh(t, n);
+        if (other.size() < red.size()) red = std::move(other);
     }
-    return {red.rbegin(), red.rend()};
+    std::vector<NetOp> out;
+    out.reserve(red.size());
+    for (auto it = red.rbegin(); it != red.rend(); ++it) out.push_back({NetOp::Kind::Cnot, it->first, it->second, {}, false});
+    return out;
 }
 
 std::vector<NetOp> synthesize_parity_network(uint32_t n, const std::vector<PhaseToPlace>& terms,
