@@ -15,7 +15,7 @@ struct EngineSettings {
     size_t max_region_ops = 20000;    ///< ops per region
     size_t scan_window = 4096;        ///< ops read while growing one region, at most
     uint32_t max_todd_width = 48;     ///< regions wider than this keep their T gates (resynthesis only)
-    size_t max_todd_columns = 320;    ///< ... and those with more T terms than this
+    size_t max_todd_columns = 512;    ///< ... and those with more T terms than this
     /// A region whose T gates cannot drop is rebuilt (for fewer CNOTs) only up to this width and
     /// this many phase terms: resynthesis is most of the engine's time on large generic circuits.
     uint32_t max_cnot_only_width = 24;
