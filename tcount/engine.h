@@ -46,14 +46,16 @@ struct EngineStats {
 };
 
 /// On a circuit in H / CNOT / X / phase form (a lowered circuit before to-target): optionally the
-/// frame exchange, then each maximal Hadamard-free region (CNOT, X, Swap, phases by multiples of
-/// pi/4 on parities, CS, CZ, CCZ, other one-wire phases passed through) is read as a phase
-/// polynomial, its odd part reduced by TODD (todd.h), the Clifford difference computed exactly
-/// (even_difference) and added back, and the region resynthesized by a Gray-code parity network
-/// followed by its linear output map. A region is replaced only when the new one has fewer T
-/// gates, or as many and fewer CNOTs; every replacement is checked against the region's phase
-/// polynomial (output map, all terms) before it is kept. Deterministic. Returns true when the
-/// circuit changed; Circuit::global_phase absorbs the constants the regions move out.
+/// frame exchange, then each maximal Hadamard-free region (CNOT, X, Swap, CZ, phases on one
+/// literal and on parities; finer angles than pi/4 are passed through to the same parity) is read
+/// as a phase polynomial, its odd part reduced by TODD (todd.h), the Clifford difference computed
+/// exactly (even_difference) and added back, and the region rebuilt by a Gray-code parity network
+/// followed by its linear output map, or on its own CNOT skeleton, whichever has fewer CNOTs. A
+/// region is replaced only when the new one has fewer T gates (and, unless cnots_may_grow, no more
+/// CNOTs), or as many and fewer CNOTs; every replacement is checked against the region's phase
+/// polynomial (output map, all terms) before it is kept (an internal error if it differs).
+/// Deterministic. Returns true when the circuit changed; Circuit::global_phase absorbs the
+/// constants the regions move out.
 bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats& stats);
 
 }  // namespace whittle::tcount
