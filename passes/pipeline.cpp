@@ -80,6 +80,12 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         // gate-cancel removes the pairs the merges left.
         add({"gate-cancel", "fold-rotations", "gate-cancel"});
         if (level >= 3) add({"fold-rotations", "gate-cancel"});
+        // clifford+t, where T is the cost: reduce-t after the folding (it starts from the folded
+        // terms, and its regions are the H-free stretches gate-cancel left), still before
+        // to-target (its phases and CZs are lowered there). At -O3 a last gate-cancel takes the
+        // CNOT pairs where a rebuilt region meets its neighbours (-O2 saves its time).
+        if (level >= 2 && *opts.target == ir::Target::CliffordT) add({"reduce-t"});
+        if (level >= 3 && *opts.target == ir::Target::CliffordT) add({"gate-cancel"});
     }
     add({"to-target", "fuse-1q"});
     if (*opts.target != ir::Target::Nct && *opts.target != ir::Target::CliffordT) add({"resynth-2q", "fuse-1q"});

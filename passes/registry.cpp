@@ -18,6 +18,7 @@
 #include "passes/normalize.h"
 #include "passes/pair_uncompute.h"
 #include "passes/plan_ancillas.h"
+#include "passes/reduce_t.h"
 #include "passes/resynth_2q.h"
 #include "passes/to_target.h"
 
@@ -49,6 +50,8 @@ const std::vector<PassInfo>& all_passes() {
          gate_cancel},
         {"fold-rotations", "rotation merging over parities on the lowered circuit, across H with path variables",
          Stage::LowLevel, fold_rotations},
+        {"reduce-t", "T-count reduction beyond folding: TODD on Hadamard-free regions, parity-network resynthesis",
+         Stage::LowLevel, reduce_t},
         {"fuse-1q", "fuse one-qubit runs and resynthesize them by Euler angles in the target's axes",
          Stage::LowLevel, fuse_1q},
         {"resynth-2q", "resynthesize two-qubit blocks by KAK with the fewest entangling gates", Stage::LowLevel,

@@ -20,8 +20,12 @@ input states on the data wires, with every clean work wire (declared or added by
 |0>, every measurement branch of the output is proportional to the reference's output state with the
 work wires back at |0> (up to a global phase per branch; a unitary output has one branch).
 
+Beside them, Toffoli- and CCZ-rich networks for reduce-t (t_network_program) are compiled for
+clifford+t at -O2 and -O3, the levels that run it.
+
 WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number of circuits (default
-80); a failure prints the .wq input, the configuration and a command that reproduces it.
+80), WHITTLE_DIFF_T_CIRCUITS the number of T networks (default half of that); a failure prints the
+.wq input, the configuration and a command that reproduces it.
 """
 import math
 import os
@@ -37,6 +41,7 @@ import numpy as np
 WHITTLE = os.environ.get("WHITTLE_BIN", "whittle")
 SEED = int(os.environ.get("WHITTLE_DIFF_SEED", "1"))
 CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "80"))
+T_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_T_CIRCUITS", str(max(1, CIRCUITS // 2))))
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
 STATES = 3  # random input states per check
@@ -229,6 +234,61 @@ def reported_programs():
     b.mcx(5, [(2, True), (4, True)])
     b.mcx(5, [(0, True), (4, True), (1, True)])
     return [a, b]
+
+
+def t_network_program(rng):
+    """For reduce-t (tcount/): Toffoli- and CCZ-rich networks on few wires. A few product wires take
+    stretches of Toffolis (the H-framed form the lowering gives them) with CNOTs, X and Z between
+    them (what the frame exchange turns around), controls shared between many Toffolis and used as
+    targets now and then, CCZ and controlled-S phases, T and S gates, parities, an occasional H or
+    rotation that ends a Hadamard-free region in the middle."""
+    n = rng.randint(4, 8)
+    prog = Program(n, 0, False)
+    data = list(range(n))
+    products = pick(rng, data, rng.choice([1, 2, 2, 3]))
+    # One in three is shaped like a GF(2^n) multiplier: Toffolis from the other wires into the
+    # product wires and only CNOT, X and Z among the product wires between the stretches.
+    factors = [w for w in data if w not in products]
+    multiplier = rng.random() < 0.35 and len(products) >= 2 and len(factors) >= 2
+    for _ in range(rng.randint(5, 16)):
+        r = rng.random()
+        if multiplier:
+            r = 0.0 if r < 0.6 else 0.7
+        if r < 0.4:  # a stretch of Toffolis into one product wire
+            t = rng.choice(products if rng.random() < 0.85 or multiplier else data)
+            for _ in range(rng.randint(1, 4)):
+                c = pick(rng, factors if multiplier else [w for w in data if w != t], 2)
+                prog.mcx(t, lits_of(rng, c, neg_rate=0.0 if multiplier else 0.1))
+        elif r < 0.55:
+            ws = pick(rng, data, 3)
+            lit = lits_of(rng, ws, neg_rate=0.1)
+            prog.lines.append("phase(pi) " + " & ".join(prog.lit(w, p) for w, p in lit))
+            prog.ops.append(("phase", math.pi, lit))
+        elif r < 0.62:
+            ws = pick(rng, data, 2)
+            theta = rng.choice(["pi/2", "-pi/2", "pi"])
+            lit = lits_of(rng, ws, neg_rate=0.1)
+            prog.lines.append(f"phase({theta}) " + " & ".join(prog.lit(w, p) for w, p in lit))
+            prog.ops.append(("phase", eval(theta.replace("pi", "math.pi")), lit))
+        elif r < 0.8:  # CNOTs between product wires (or from anywhere into one), X or Z on one
+            a = rng.choice(products)
+            b = rng.choice([w for w in (products if len(products) > 1 else data) if w != a])
+            if rng.random() < 0.7:
+                prog.mcx(b, [(a, True)])
+            elif rng.random() < 0.5:
+                prog.mcx(a, [])
+            else:
+                prog.lines.append(f"z {prog.name(a)}")
+                prog.ops.append(("phase", math.pi, [(a, True)]))
+        elif r < 0.9:
+            ws = pick(rng, data, rng.randint(1, 3))
+            theta = rng.choice(["pi/4", "-pi/4", "3*pi/4", "pi/2"])
+            lines = " ^ ".join(prog.name(w) for w in ws)
+            prog.lines.append(f"phase({theta}) {lines}")
+            prog.ops.append(("parity", eval(theta.replace("pi", "math.pi")), list(ws)))
+        else:
+            one_qubit_line(rng, prog, rng.choice(data), prog.ops, prog.lines)
+    return prog
 
 
 def random_program(rng, classical):
@@ -517,6 +577,7 @@ def main():
     rng_np = np.random.default_rng(SEED)
     tmp = tempfile.mkdtemp(prefix="whittle-diff-")
     progs = []
+    t_paths = set()  # the reduce-t networks: compiled for clifford+t at -O2 and -O3 only
     for i, prog in enumerate(reported_programs()):
         path = os.path.join(tmp, f"reported{i}.wq")
         with open(path, "w") as f:
@@ -529,11 +590,20 @@ def main():
         with open(path, "w") as f:
             f.write(prog.text())
         progs.append((path, prog) + reference_states(prog, rng_np))
+    for i in range(T_CIRCUITS):
+        prog = t_network_program(rng)
+        path = os.path.join(tmp, f"t{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
+        t_paths.add(path)
     configs = [(t, o, False) for t in TARGETS for o in LEVELS] + [("clifford+t", o, True) for o in LEVELS]
     checked = failures = refused = 0
     all_progs = progs
     for target, level, meas in configs:
         progs = [p for p in all_progs if p[1].classical] if target == "nct" else all_progs
+        if not (target == "clifford+t" and level in ("-O2", "-O3") and not meas):
+            progs = [p for p in progs if p[0] not in t_paths]
         outdir = os.path.join(tmp, f"{target}{level}{'-m' if meas else ''}".replace("+", "_"))
         os.mkdir(outdir)
         cmd = [WHITTLE, "compile", "-q", "-j", "2", "--target", target, level, "--emit", "qasm2", "-o", outdir]
@@ -559,7 +629,8 @@ def main():
                 failures += 1
                 print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
     shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
-    print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations: "
+    print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations, "
+          f"{T_CIRCUITS} T networks x 2 (clifford+t -O2, -O3): "
           f"{checked} outputs checked by numpy, {failures} failures, {refused} refused with a located reason (nct)")
     print(f"{checked - failures} passed, {failures} failed")
     return 1 if failures else 0

@@ -502,7 +502,7 @@ TEST_CASE("an output with approximated rotations is not a witness; a planted bug
         "q[0] ^= q[1] & q[2]\nq[0] ^= q[1] & q[2]\n");
     passes::PassOptions po;
     po.level = 1;
-    po.target = ir::Target::CliffordT;
+    po.target = ir::parse_optional_target("clifford+t");
     Circuit out = source;
     passes::run_passes(out, passes::pipeline_for(po), po);
     const EquivResult r = check_equivalence(source, out);
