@@ -83,7 +83,8 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         // clifford+t, where T is the cost: reduce-t after the folding (it starts from the folded
         // terms, and its regions are the H-free stretches gate-cancel left), still before
         // to-target (its phases and CZs are lowered there). At -O3 a last gate-cancel takes the
-        // CNOT pairs where a rebuilt region meets its neighbours (-O2 saves its time).
+        // gate pairs where a rebuilt region meets its neighbours (-O2 rebuilds only regions whose
+        // T-count falls, and saves the time).
         if (level >= 2 && *opts.target == ir::Target::CliffordT) add({"reduce-t"});
         if (level >= 3 && *opts.target == ir::Target::CliffordT) add({"gate-cancel"});
     }

@@ -17,14 +17,16 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
     s.todd.work_budget = uint64_t(1) << 32;
     s.total_work_budget = std::max<uint64_t>(uint64_t(1) << 31, 256 * ops);
     if (opts.level <= 2) {
-        // -O2 keeps its near-linear time: smaller regions, small effort caps.
+        // -O2 keeps its near-linear time: smaller regions, small effort caps, and regions are
+        // rebuilt only for fewer T (a rebuild for CNOTs alone leaves gate pairs at its borders that
+        // only -O3's last gate-cancel takes).
         s.scan_window = 1024;
         s.max_width = 32;
         s.max_todd_columns = 160;
         s.todd.work_budget = uint64_t(1) << 24;
         s.total_work_budget = std::max<uint64_t>(uint64_t(1) << 24, 16 * ops);
-        s.max_cnot_only_width = 12;
-        s.max_cnot_only_terms = 32;
+        s.max_cnot_only_width = 0;  // only regions whose T-count falls are rebuilt
+        s.max_cnot_only_terms = 0;
         s.max_full_width = 24;
         s.max_full_terms = 192;
     }

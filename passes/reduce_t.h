@@ -13,7 +13,8 @@ namespace whittle::passes {
 /// is resynthesized by a Gray-code parity network (Amy, Azimzadeh, Mosca 2018, arXiv:1712.01859).
 /// A region is replaced only when it gets fewer T gates, or as many and fewer CNOTs (with
 /// --optimize-for other than t: fewer T only when the CNOTs do not grow). -O2 runs it with smaller
-/// regions and effort caps than -O3. Leaves the circuit untouched when nothing improves.
+/// regions and effort caps than -O3 and rebuilds only regions whose T-count falls. Leaves the
+/// circuit untouched when nothing improves.
 PassResult reduce_t(ir::Circuit& c, const PassOptions& opts);
 
 }  // namespace whittle::passes

@@ -129,6 +129,60 @@ int64_t append_net(const std::vector<NetOp>& net, const std::vector<uint32_t>& v
     return cnots;
 }
 
+/// Removes pairs of equal CNOTs, NOTs and CZs with nothing between them on their wires (the
+/// parity networks' compute and uncompute steps meet the skeleton's CNOTs); returns the CNOTs left
+/// (a CZ counts as one).
+int64_t cancel_adjacent(std::vector<Op>& ops, uint32_t wires) {
+    auto self_inverse = [](const Op& op) {
+        return (op.kind == OpKind::X && op.controls.size() <= 1) ||
+               (op.kind == OpKind::Phase && op.controls.size() == 2 && op.angle.eighths() == 4);
+    };
+    auto same = [](const Op& a, const Op& b) {
+        if (a.kind != b.kind || a.target != b.target || a.controls.size() != b.controls.size()) return false;
+        for (size_t k = 0; k < a.controls.size(); ++k)
+            if (a.controls[k] != b.controls[k]) return false;
+        return true;
+    };
+    std::vector<std::vector<uint32_t>> last(wires);  // per region wire: the live ops on it, in order
+    std::vector<uint8_t> dead(ops.size(), 0);
+    std::vector<uint32_t> ws;
+    (void)wires;
+    std::unordered_map<uint32_t, uint32_t> slot;  // circuit wire -> index into `last`
+    auto stack_of = [&](uint32_t w) -> std::vector<uint32_t>& {
+        auto [it, fresh] = slot.emplace(w, uint32_t(slot.size()));
+        if (it->second >= last.size()) last.resize(it->second + 1);
+        return last[it->second];
+    };
+    for (uint32_t i = 0; i < ops.size(); ++i) {
+        ws.clear();
+        ops[i].wires(ws);
+        if (self_inverse(ops[i])) {
+            const std::vector<uint32_t>& first = stack_of(ws[0]);
+            if (!first.empty()) {
+                const uint32_t j = first.back();
+                bool all = same(ops[j], ops[i]);
+                for (uint32_t w : ws) all = all && !stack_of(w).empty() && stack_of(w).back() == j;
+                if (all) {
+                    dead[j] = dead[i] = 1;
+                    for (uint32_t w : ws) stack_of(w).pop_back();
+                    continue;
+                }
+            }
+        }
+        for (uint32_t w : ws) stack_of(w).push_back(i);
+    }
+    int64_t cnots = 0;
+    size_t out = 0;
+    for (size_t i = 0; i < ops.size(); ++i) {
+        if (dead[i]) continue;
+        cnots += cnot_cost(ops[i]);
+        if (out != i) ops[out] = std::move(ops[i]);
+        ++out;
+    }
+    ops.resize(out);
+    return cnots;
+}
+
 /// (a): CZ gates, then one parity network for every term and the output map. Returns the CNOTs
 /// (a CZ counts as one).
 int64_t synthesize_full(const RegionPolynomial& poly, const std::vector<uint64_t>& cols, const EvenQuadratic& even,
@@ -305,10 +359,12 @@ std::optional<Rebuilt> rebuild_region(const ir::Circuit& c, const std::vector<ui
 
     // Two ways to build the region; the one with fewer CNOTs is kept (both place one T per column).
     std::vector<Op> full, kept;
-    const int64_t kept_cnots = synthesize_on_skeleton(c, region, var_of_wire, poly, cols, *even, var_wire, kept);
+    int64_t kept_cnots = synthesize_on_skeleton(c, region, var_of_wire, poly, cols, *even, var_wire, kept);
+    if (kept_cnots >= 0) kept_cnots = cancel_adjacent(kept, width);
     const bool try_full = kept_cnots < 0 || (width <= settings.max_full_width &&
                                              poly.z8.size() + poly.other.size() <= settings.max_full_terms);
-    const int64_t full_cnots = try_full ? synthesize_full(poly, cols, *even, var_wire, full) : -1;
+    int64_t full_cnots = try_full ? synthesize_full(poly, cols, *even, var_wire, full) : -1;
+    if (full_cnots >= 0) full_cnots = cancel_adjacent(full, width);
     if (kept_cnots < 0 && full_cnots < 0) return std::nullopt;
     const bool use_kept = kept_cnots >= 0 && (full_cnots < 0 || kept_cnots < full_cnots);
     r.ops = std::move(use_kept ? kept : full);
