@@ -42,6 +42,7 @@ struct CompileArgs {
     bool stats = false;
     uint32_t extra_ancillas = 0;
     double epsilon = 1e-10;
+    std::optional<double> total_error;
     bool quiet = false;
     std::vector<std::string> include_dirs;
     std::vector<std::string> roles;  // --role NAME=ROLE, as written
@@ -109,6 +110,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.allow_measurement = a.allow_measurement;
     o.extra_ancillas = a.extra_ancillas;
     o.epsilon = a.epsilon;
+    o.total_error = a.total_error;
     o.passes = a.passes;
     o.dump_after = a.dump_after;
     o.stats = a.stats;
@@ -303,6 +305,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
                     "borrow (any state, restored); for OpenQASM inputs, which cannot declare it (repeatable)");
     cmd->add_option("--extra-ancillas", args->extra_ancillas, "fresh clean wires the lowering may add (default 0)");
     cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
+    cmd->add_option("--total-error", args->total_error,
+                    "error bound for the whole circuit (clifford+t), split evenly over the rotations it approximates; "
+                    "instead of --epsilon");
     cmd->add_flag("-q,--quiet", args->quiet, "no progress indicator");
     cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");
     cmd->callback([args, target, &exit_code]() {

@@ -113,6 +113,13 @@ std::vector<std::string> pass_names(const CompileOptions& o) {
 void check_options(const CompileOptions& o) {
     if (!(o.epsilon >= kMinEpsilon && o.epsilon < 1))
         throw UserError(fmt::format("--epsilon must lie in [1e-15, 1), got {}", o.epsilon));
+    if (o.total_error) {
+        if (!(*o.total_error >= kMinEpsilon && *o.total_error < 1))
+            throw UserError(fmt::format("--total-error must lie in [1e-15, 1), got {}", *o.total_error));
+        if (o.epsilon != CompileOptions{}.epsilon)
+            throw UserError("--total-error and --epsilon both set: --total-error splits the whole circuit's error over "
+                            "its rotations, --epsilon sets each rotation's; give one");
+    }
     for (size_t i = 0; i < o.register_roles.size(); ++i)
         for (size_t j = 0; j < i; ++j)
             if (o.register_roles[i].first == o.register_roles[j].first)
@@ -155,8 +162,9 @@ void declare_roles(ir::Circuit& c, const CompileOptions& o) {
 
 }  // namespace
 
-CompileResult compile(ir::Circuit c, const CompileOptions& o) {
-    check_options(o);
+namespace {
+
+CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
     declare_roles(c, o);
     const passes::PassOptions po = pass_options(o);
     const std::vector<std::string> names = pass_names(o);
@@ -291,6 +299,54 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
     }
     r.circuit = std::move(c);
     return r;
+}
+
+/// The sum of the passes' approximation error bounds.
+double approximation_of(const std::vector<passes::PassRecord>& records) {
+    double e = 0;
+    for (const passes::PassRecord& rec : records) e += rec.result.error_bound;
+    return e;
+}
+
+/// The rotations the Clifford+T synthesis approximated in a run.
+int64_t rotations_approximated(const std::vector<passes::PassRecord>& records) {
+    int64_t n = 0;
+    for (const passes::PassRecord& rec : records)
+        if (rec.name == "to-target")
+            for (const auto& [k, v] : rec.result.stats)
+                if (k == "rotations-approximated") n += v;
+    return n;
+}
+
+}  // namespace
+
+CompileResult compile(ir::Circuit c, const CompileOptions& o) {
+    check_options(o);
+    if (!o.total_error) return compile_once(std::move(c), o);
+    // The whole circuit's error budget E over N approximated rotations: each gets E / N, and the
+    // bounds add up (triangle inequality) to at most E. N is learned from a run (the constructions
+    // priced with the per-rotation epsilon may change it, so the split is redone until it holds).
+    const double budget = *o.total_error;
+    CompileOptions each = o;
+    each.total_error.reset();
+    each.epsilon = budget;
+    ir::Circuit probe = c;
+    int64_t n = rotations_approximated(passes::run_passes(probe, pass_names(each), pass_options(each)));
+    for (int attempt = 0;; ++attempt) {
+        if (n > 1) each.epsilon = budget / double(n);
+        if (each.epsilon < kMinEpsilon)
+            throw UserError(fmt::format("--total-error {} over the {} rotations this circuit approximates is {:.2g} each, "
+                                        "below the synthesis's floor of 1e-15: raise the total",
+                                        budget, n, each.epsilon));
+        CompileResult r = compile_once(attempt == 2 ? std::move(c) : ir::Circuit(c), each);
+        if (r.status != CompileStatus::Ok || approximation_of(r.records) <= budget) {
+            if (o.report) r.report["options"]["total_error"] = budget;
+            return r;
+        }
+        // A run kept among the alternatives approximated more rotations: split over those.
+        WHITTLE_ASSERT(attempt < 2 && "the error split did not converge");
+        n = std::max<int64_t>(rotations_approximated(r.records), 2 * n);
+    }
 }
 
 CompileResult compile_file(const std::string& path, const CompileOptions& o, frontend::SourceManager& sm) {

@@ -35,6 +35,10 @@ struct CompileOptions {
     bool allow_measurement = false;    ///< measurement-based uncompute and feed-forward allowed
     uint32_t extra_ancillas = 0;       ///< fresh clean wires the lowering may add
     double epsilon = 1e-10;            ///< per-rotation approximation error (clifford+t), in [1e-15, 1)
+    /// The approximation error allowed for the whole circuit (clifford+t): split evenly over the
+    /// rotations the synthesis approximates, so the report's approximation_error_bound stays within
+    /// it; replaces `epsilon` (set one or the other). In [1e-15, 1).
+    std::optional<double> total_error;
     std::string passes;                ///< run exactly this comma-separated list ("" = the -O pipeline)
     std::vector<std::string> dump_after;  ///< print the circuit after these passes ("all": every one)
     bool stats = false;                   ///< one line per pass with its changes and counters

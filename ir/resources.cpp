@@ -2,6 +2,7 @@
 #include "ir/resources.h"
 
 #include <algorithm>
+#include <utility>
 #include <vector>
 
 namespace whittle::ir {
@@ -98,7 +99,11 @@ Resources count_resources(const Circuit& c) {
         if (q.role == Role::Clean) ++r.clean_qubits;
         if (q.role == Role::Dirty) ++r.dirty_qubits;
     }
-    std::vector<uint64_t> layer(c.num_qubits(), 0), tlayer(c.num_qubits(), 0);
+    std::vector<uint64_t> layer(c.num_qubits(), 0), tlayer(c.num_qubits(), 0), rlayer(c.num_qubits(), 0);
+    // Live ranges of the work wires, as op positions (first touch, last touch); npos = untouched.
+    constexpr uint64_t kUntouched = ~uint64_t(0);
+    std::vector<uint64_t> first_use(c.num_qubits(), kUntouched), last_use(c.num_qubits(), 0);
+    uint64_t position = 0;
     std::vector<uint64_t> by_key(kKinds * kControlBuckets * kAngleBuckets, 0);
     std::vector<const Op*> example(by_key.size(), nullptr);
     std::vector<uint32_t> wires;
@@ -118,21 +123,48 @@ Resources count_resources(const Circuit& c) {
         if (wires.size() == 2) ++r.two_qubit_count;
         const bool rotation = op.kind == OpKind::Phase || op.kind == OpKind::Parity || op.kind == OpKind::RX ||
                               op.kind == OpKind::RY || op.kind == OpKind::RZ;
-        if (rotation && !op.angle.is_multiple_of_pi_over(4)) ++r.non_clifford_rotations;
-        uint64_t l = 0, tl = 0;
+        const bool arbitrary = rotation && !op.angle.is_multiple_of_pi_over(4);
+        if (arbitrary) ++r.non_clifford_rotations;
+        uint64_t l = 0, tl = 0, rl = 0;
         for (uint32_t w : wires) {
             l = std::max(l, layer[w]);
             tl = std::max(tl, tlayer[w]);
+            rl = std::max(rl, rlayer[w]);
+            if (first_use[w] == kUntouched) first_use[w] = position;
+            last_use[w] = position;
         }
+        ++position;
         ++l;
         if (t) ++tl;
+        if (arbitrary) ++rl;
         for (uint32_t w : wires) {
             layer[w] = l;
             tlayer[w] = tl;
+            rlayer[w] = rl;
         }
         r.depth = std::max(r.depth, l);
         r.t_depth = std::max(r.t_depth, tl);
+        r.rotation_depth = std::max(r.rotation_depth, rl);
     }
+    // Peak live wires: a sweep over the work wires' ranges (+1 at the first touch, -1 after the
+    // last) on top of the data wires, which are live throughout.
+    std::vector<std::pair<uint64_t, int>> events;
+    uint32_t always = 0;
+    for (uint32_t w = 0; w < c.num_qubits(); ++w) {
+        if (c.qubits[w].role == Role::Data) {
+            ++always;
+        } else if (first_use[w] != kUntouched) {
+            events.emplace_back(first_use[w], 1);
+            events.emplace_back(last_use[w] + 1, -1);
+        }
+    }
+    std::sort(events.begin(), events.end());  // at one position the ends (-1) come before the starts
+    int64_t live = 0, peak = 0;
+    for (const auto& e : events) {
+        live += e.second;
+        peak = std::max(peak, live);
+    }
+    r.peak_live_qubits = always + uint32_t(peak);
     for (size_t key = 0; key < by_key.size(); ++key)
         if (by_key[key] != 0) r.gates[gate_name(*example[key])] += by_key[key];
     return r;

@@ -21,6 +21,10 @@ struct Resources {
     uint64_t measurements = 0;
     uint64_t depth = 0;            ///< ASAP layers over all ops except barriers
     uint64_t non_clifford_rotations = 0;  ///< rotations/phases whose angle is not a multiple of pi/4 (or pi/2 for controls)
+    uint64_t rotation_depth = 0;   ///< layers of those rotations when every other op is scheduled ASAP
+    /// Most wires live at once, in op order: a data wire is live throughout; a clean or borrowed wire
+    /// from the first op that touches it to the last (an untouched one never).
+    uint32_t peak_live_qubits = 0;
     std::map<std::string, uint64_t> gates;  ///< count by gate name (see gate_name)
 };
 

@@ -1,7 +1,10 @@
 // Builds the compile report: the output's resources, the options, each pass's record and construction.
 #include "output/compile_report.h"
 
+#include <algorithm>
 #include <utility>
+
+#include "ir/resources.h"
 
 namespace whittle::lowering {
 
@@ -44,7 +47,43 @@ Json construction_json(const std::string& pass, const passes::Construction& k) {
     return j;
 }
 
+int64_t stat_of(const passes::PassRecord& r, const char* name) {
+    for (const auto& [k, v] : r.result.stats)
+        if (k == name) return v;
+    return 0;
+}
+
 }  // namespace
+
+LogicalCounts logical_counts(const std::vector<passes::PassRecord>& records, const ir::Circuit& output) {
+    LogicalCounts n;
+    const ir::Resources out = ir::count_resources(output);
+    bool synthesized = false;
+    for (const passes::PassRecord& r : records) {
+        if (r.name == "lower-toffoli") {
+            n.toffoli += uint64_t(stat_of(r, "toffoli-7t") + stat_of(r, "toffoli-tdepth3") + stat_of(r, "ccz-7t") +
+                                  stat_of(r, "ccz-tdepth3"));
+            n.relative_phase_toffoli += uint64_t(stat_of(r, "toffoli-relative-phase"));
+            n.temporary_and += uint64_t(stat_of(r, "temporary-and"));
+            n.measured_uncompute += uint64_t(stat_of(r, "measured-erase"));
+        }
+        if (r.name == "to-target" && stat_of(r, "rotations-approximated") > 0) {
+            synthesized = true;
+            n.rotations += uint64_t(stat_of(r, "rotations-approximated"));
+            n.rotation_depth = std::max(n.rotation_depth, uint64_t(stat_of(r, "rotation-layers")));
+        }
+    }
+    // What is still in the output (no target, or one that keeps Toffolis or rotations).
+    const auto ccz = out.gates.find("ccz");
+    n.toffoli += out.toffoli_count + (ccz == out.gates.end() ? 0 : ccz->second);
+    n.mcx = out.mcx_count;
+    if (!synthesized) {
+        n.rotations = out.non_clifford_rotations;
+        n.rotation_depth = out.rotation_depth;
+    }
+    n.peak_live_qubits = out.peak_live_qubits;
+    return n;
+}
 
 Json compile_report(const CompileReportInput& in) {
     Json j;
@@ -62,7 +101,20 @@ Json compile_report(const CompileReportInput& in) {
         {"verify", in.verify},
     };
     j["kept_run"] = in.kept_run.empty() ? Json(nullptr) : Json(in.kept_run);
-    if (in.output) j.update(resources_json(ir::count_resources(*in.output)));
+    if (in.output) {
+        j.update(resources_json(ir::count_resources(*in.output)));
+        const LogicalCounts n = logical_counts(in.records, *in.output);
+        j["logical_counts"] = {
+            {"toffoli", n.toffoli},
+            {"relative_phase_toffoli", n.relative_phase_toffoli},
+            {"temporary_and", n.temporary_and},
+            {"measured_uncompute", n.measured_uncompute},
+            {"mcx", n.mcx},
+            {"rotations", n.rotations},
+            {"rotation_depth", n.rotation_depth},
+            {"peak_live_qubits", n.peak_live_qubits},
+        };
+    }
     j["input_resources"] = in.source ? resources_json(ir::count_resources(*in.source)) : Json(nullptr);
     Json pass_list = Json::array();
     Json constructions = Json::array();

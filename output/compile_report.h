@@ -25,6 +25,22 @@ struct CompileReportInput {
     std::vector<passes::PassRecord> records;
 };
 
+/// The counts a fault-tolerant resource estimate is made of, beside the lowered circuit's gates.
+struct LogicalCounts {
+    uint64_t toffoli = 0;                 ///< Toffolis and CCZs: lowered exactly (7 T each) or left in the output
+    uint64_t relative_phase_toffoli = 0;  ///< compute/uncompute halves lowered to relative-phase forms (4 T each)
+    uint64_t temporary_and = 0;           ///< compute halves lowered to the temporary AND (4 T)
+    uint64_t measured_uncompute = 0;      ///< uncompute halves erased by measurement (no T)
+    uint64_t mcx = 0;                     ///< multi-controlled X ops left in the output (3+ controls)
+    /// Arbitrary rotations (angles that are not multiples of pi/4): those the Clifford+T synthesis
+    /// approximated, or on other targets those in the output; and their layers (ASAP).
+    uint64_t rotations = 0, rotation_depth = 0;
+    uint32_t peak_live_qubits = 0;        ///< see ir::Resources::peak_live_qubits
+};
+
+/// The logical counts of a compile: from the lowering passes' records and the output.
+LogicalCounts logical_counts(const std::vector<passes::PassRecord>& records, const ir::Circuit& output);
+
 /// `whittle compile --report FILE.json`: the output's resource fields at the top level, plus
 /// "input_resources", "target", "level", "options", "passes", "constructions" and
 /// "approximation_error_bound" (the sum of the passes' error bounds; 0 when nothing was approximated).

@@ -22,6 +22,8 @@ Json resources_json(const ir::Resources& r) {
     j["mcx_count"] = r.mcx_count;
     j["measurements"] = r.measurements;
     j["non_clifford_rotations"] = r.non_clifford_rotations;
+    j["rotation_depth"] = r.rotation_depth;
+    j["peak_live_qubits"] = r.peak_live_qubits;
     j["depth"] = r.depth;
     j["gates"] = r.gates;  // std::map: keys come out sorted
     return j;
@@ -39,6 +41,7 @@ std::string resource_table(const ir::Resources& r) {
     std::vector<std::pair<std::string, std::string>> rows = {
         {"qubits", fmt::format("{} (data {}, ancilla {}, borrow {})", r.qubits, r.data_qubits, r.clean_qubits,
                                r.dirty_qubits)},
+        {"peak live qubits", fmt::format("{}", r.peak_live_qubits)},
         {"ops", fmt::format("{}", r.ops)},
         {"T-count", fmt::format("{}", r.t_count)},
         {"T-depth", fmt::format("{}", r.t_depth)},
@@ -49,7 +52,10 @@ std::string resource_table(const ir::Resources& r) {
         {"depth", fmt::format("{}", r.depth)},
     };
     if (r.measurements) rows.push_back({"measurements", fmt::format("{}", r.measurements)});
-    if (r.non_clifford_rotations) rows.push_back({"non-Clifford angles", fmt::format("{}", r.non_clifford_rotations)});
+    if (r.non_clifford_rotations) {
+        rows.push_back({"non-Clifford angles", fmt::format("{}", r.non_clifford_rotations)});
+        rows.push_back({"rotation depth", fmt::format("{}", r.rotation_depth)});
+    }
     // Gate rows are indented by two; every value starts in the same column.
     size_t key_width = 0;
     for (const auto& row : rows) key_width = std::max(key_width, row.first.size());

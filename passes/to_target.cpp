@@ -3,6 +3,7 @@
 
 #include "ir/error.h"
 #include "ir/op_prefix_release.h"
+#include "ir/resources.h"
 #include "lowering/target_lowering.h"
 #include "lowering/targets.h"
 
@@ -15,6 +16,12 @@ PassResult to_target(ir::Circuit& c, const PassOptions& opts) {
     bool all_in = true;
     for (const ir::Op& op : c.ops) all_in = all_in && lowering::in_target(op, t);
     if (all_in) return r;
+    // What an estimate made before synthesis counts: the layers of arbitrary rotations (not
+    // multiples of pi/4) on the circuit as it enters the Clifford+T synthesis.
+    if (t == lowering::Target::CliffordT) {
+        const ir::Resources before = ir::count_resources(c);
+        if (before.non_clifford_rotations) r.count("rotation-layers", int64_t(before.rotation_depth));
+    }
     std::vector<ir::Op> out;
     out.reserve(c.ops.size() + c.ops.size() / 4);
     ir::Angle phase = c.global_phase;
