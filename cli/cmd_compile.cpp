@@ -10,6 +10,7 @@
 #include <thread>
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include "cli/commands.h"
 #include "cli/driver.h"
@@ -44,6 +45,7 @@ struct CompileArgs {
     double epsilon = 1e-10;
     std::optional<double> total_error;
     bool quiet = false;
+    bool cost_by_line = false;
     std::vector<std::string> include_dirs;
     std::vector<std::string> roles;  // --role NAME=ROLE, as written
 };
@@ -117,6 +119,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.time_passes = a.time_passes;
     o.check = !a.no_check;
     o.include_dirs = a.include_dirs;
+    o.cost_by_line = a.cost_by_line;
     for (const std::string& r : a.roles) o.register_roles.push_back(parse_role(r));
     return o;
 }
@@ -146,6 +149,40 @@ void check_options(const CompileArgs& a) {
             throw UserError(fmt::format("--report '{}' and the output are the same file; give the report a name of its own",
                                         report_stdout ? std::string("-") : a.report));
     }
+}
+
+/// The --cost-by-line table: one row per source line, largest first, at most kMaxCostRows of them.
+std::string cost_table(const compiler::CompileResult& r, const frontend::SourceManager& sm) {
+    constexpr size_t kMaxCostRows = 20;
+    const ir::Resources all = ir::count_resources(r.circuit);
+    std::string out = fmt::format("cost by source line (in all: T {}, two-qubit {}, rotations {}, qubits {}):\n",
+                                  all.t_count, all.two_qubit_count, all.non_clifford_rotations, all.qubits);
+    out += fmt::format("{:>8} {:>9} {:>9} {:>8} {:>6}  {}\n", "T", "two-qubit", "rotations", "ops", "qubits", "line");
+    size_t shown = 0;
+    for (const lowering::LineCost& row : r.line_costs) {
+        const bool last = &row == &r.line_costs.back();
+        if (shown == kMaxCostRows && !last) {
+            out += fmt::format("{:>8} ({} more lines)\n", "...", r.line_costs.size() - shown - 1);
+            shown = r.line_costs.size();  // print only the unattributed row after this
+            continue;
+        }
+        if (shown > kMaxCostRows && row.line != 0) continue;
+        ++shown;
+        std::string where = "(no single line: merged or rebuilt by the optimizer, or added by the compiler)";
+        if (row.line != 0) {
+            const std::string file = row.file < r.circuit.files.size() ? r.circuit.files[row.file] : "?";
+            std::string text;
+            if (row.file < sm.size()) text = std::string(sm.line(row.file, row.line));
+            const size_t b = text.find_first_not_of(" \t");
+            text = b == std::string::npos ? "" : text.substr(b);
+            if (text.size() > 60) text = text.substr(0, 57) + "...";
+            where = fmt::format("{}:{}  {}", std::filesystem::path(file).filename().string(), row.line, text);
+        }
+        if (!row.constructions.empty()) where += fmt::format("  [{}]", fmt::join(row.constructions, ", "));
+        out += fmt::format("{:>8} {:>9} {:>9} {:>8} {:>6}  {}\n", row.t_count, row.two_qubit, row.rotations, row.ops,
+                           row.qubits, where);
+    }
+    return out;
 }
 
 /// Compiles one input; diagnostics and --stats / --dump-after text go to `err`.
@@ -184,6 +221,7 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
             err << fmt::format("{}: {} qubits, {}, two-qubit {}, depth {}{}; {}\n", job.input, res.qubits, cost,
                                res.two_qubit_count, res.depth, kept, a.no_check ? "not checked (--no-check)" : r.check_summary);
         }
+        if (a.cost_by_line) err << cost_table(r, sm);
         return kOk;
     }, err);
 }
@@ -308,6 +346,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_option("--total-error", args->total_error,
                     "error bound for the whole circuit (clifford+t), split evenly over the rotations it approximates; "
                     "instead of --epsilon");
+    cmd->add_flag("--cost-by-line", args->cost_by_line,
+                  "print the output's T, two-qubit gates, rotations and qubits by source line, largest first (a "
+                  "routine call's cost at the call's line)");
     cmd->add_flag("-q,--quiet", args->quiet, "no progress indicator");
     cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");
     cmd->callback([args, target, &exit_code]() {

@@ -284,6 +284,7 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
         }
     }
     r.text = emit_text(c, o.emit);
+    if (o.cost_by_line) r.line_costs = lowering::cost_by_line(c, r.records, o.optimize_for);
     if (o.report) {
         lowering::CompileReportInput ri;
         ri.input = o.input_name;
@@ -296,6 +297,7 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
         ri.kept_run = r.kept_run;
         ri.records = r.records;
         r.report = lowering::compile_report(ri);
+        if (o.cost_by_line) r.report["cost_by_line"] = lowering::cost_by_line_json(r.line_costs, c);
     }
     r.circuit = std::move(c);
     return r;
@@ -352,6 +354,7 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
 CompileResult compile_file(const std::string& path, const CompileOptions& o, frontend::SourceManager& sm) {
     frontend::LoadOptions lo;
     lo.include_dirs = o.include_dirs;
+    lo.locate_at_call_site = o.cost_by_line;
     ir::Circuit c = frontend::load_file(path, sm, lo);
     if (frontend::format_for_path(path) != frontend::InputFormat::Wq || alternative_runs(o, c.ops.size()).empty())
         return compile(std::move(c), o);

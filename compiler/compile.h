@@ -13,6 +13,7 @@
 
 #include "ir/circuit.h"
 #include "ir/target.h"
+#include "output/cost_by_line.h"
 #include "output/report.h"
 #include "passes/pipeline.h"
 
@@ -52,6 +53,9 @@ struct CompileOptions {
     bool report = false;               ///< build the JSON report (CompileResult::report)
     std::string input_name;            ///< the input as the user named it (report, messages)
     std::vector<std::string> include_dirs;  ///< extra folders searched by `use` (compile_file)
+    /// Sum the output's cost by source line (CompileResult::line_costs, the report's "cost_by_line");
+    /// compile_file then locates what an outermost routine call makes at the call.
+    bool cost_by_line = false;
     /// Roles declared for registers of the input, by name (`--role NAME=ROLE`): an OpenQASM file
     /// cannot say which wires start clean. Set on the input before anything else, so a declared
     /// `ancilla` is held to its contract like one declared in a .wq program; a name that is not a
@@ -92,6 +96,8 @@ struct CompileResult {
     /// When a run with fewer options or another construction metric gave the kept result (see
     /// alternative_runs): its label, e.g. "without --allow-measurement"; "" for the run asked for.
     std::string kept_run;
+    /// The output's cost by source line, largest first (CompileOptions::cost_by_line; else empty).
+    std::vector<lowering::LineCost> line_costs;
 };
 
 /// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are

@@ -113,6 +113,7 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
     call_stack_.push_back(r.sym);
     call_ancillas_.emplace_back();
     size_t start = c_.ops.size();
+    const size_t registers_before = c_.registers.size();
     ir::Angle phase_before = c_.global_phase;
     try {
         exec_block(rf, r.body);
@@ -133,6 +134,11 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
     frame_base_ = saved_base;
     scope_depth_ = saved_depth;
     if (s.inverse) invert_tail(start, phase_before);
+    if (opts_.locate_at_call_site && call_stack_.empty()) {
+        // An outermost call: what it made is the calling line's (for cost by source line).
+        for (size_t i = start; i < c_.ops.size(); ++i) c_.ops[i].loc = loc;
+        for (size_t i = registers_before; i < c_.registers.size(); ++i) c_.registers[i].loc = loc;
+    }
 }
 
 void Elaborator::exec_compute(const File& f, const Stmt& s) {

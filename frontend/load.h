@@ -17,6 +17,9 @@ struct LoadOptions {
     /// shape takes them (fewer qubits); false gives every call fresh wires (what the lowering may
     /// prefer for T: compiler::compile_file tries both on small programs).
     bool reuse_work_wires = true;
+    /// Every op and work register an outermost routine call makes is located at the call, not
+    /// inside the routine (`compile --cost-by-line` attributes the cost of a call to its line).
+    bool locate_at_call_site = false;
 };
 
 enum class InputFormat { Wq, Qasm2 };

@@ -91,6 +91,19 @@ size_t name_key(const Op& op) {
 
 }  // namespace
 
+OpCounts op_counts(const Op& op) {
+    OpCounts k;
+    if (op.kind == OpKind::Barrier) return k;
+    k.t = is_t_like(op);
+    std::vector<uint32_t> wires;
+    op.wires(wires);
+    k.two_qubit = wires.size() == 2;
+    const bool rotation = op.kind == OpKind::Phase || op.kind == OpKind::Parity || op.kind == OpKind::RX ||
+                          op.kind == OpKind::RY || op.kind == OpKind::RZ;
+    k.arbitrary_rotation = rotation && !op.angle.is_multiple_of_pi_over(4);
+    return k;
+}
+
 Resources count_resources(const Circuit& c) {
     Resources r;
     r.qubits = c.num_qubits();

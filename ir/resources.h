@@ -35,6 +35,14 @@ std::string gate_name(const Op& op);
 
 Resources count_resources(const Circuit& c);
 
+/// What one op adds to the counts above (the rules count_resources uses).
+struct OpCounts {
+    bool t = false;                   ///< a T-like one-wire phase
+    bool two_qubit = false;           ///< on exactly two wires
+    bool arbitrary_rotation = false;  ///< a rotation or phase by an angle that is not a multiple of pi/4
+};
+OpCounts op_counts(const Op& op);
+
 /// The T-count and CNOT count alone, as count_resources counts them (the pass runner records these
 /// at every pass boundary; no depth, no table by gate name).
 struct TAndCnotCount {

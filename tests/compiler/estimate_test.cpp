@@ -7,6 +7,8 @@
 #include <doctest/doctest.h>
 
 #include <algorithm>
+#include <filesystem>
+#include <fstream>
 #include <cmath>
 #include <optional>
 #include <string>
@@ -129,4 +131,44 @@ TEST_CASE("total error: split over the approximated rotations, the output within
     both.total_error = 1e-3;
     both.epsilon = 1e-4;
     CHECK_THROWS_AS(compiler::compile(load(program), both), UserError);
+}
+
+TEST_CASE("cost by source line: a routine call's cost at the call, columns adding up to the whole") {
+    // Hand counts: line 5 is one T gate; the call on line 6 runs the routine's two T gates on two
+    // wires (nothing to merge) and its H; the routine's own lines get nothing.
+    const std::filesystem::path dir = std::filesystem::temp_directory_path() / "whittle_cost_by_line_test";
+    std::filesystem::create_directories(dir);
+    const std::string path = (dir / "costs.wq").string();
+    {
+        std::ofstream f(path);
+        f << "routine two_t(x, y) {\n  t x\n  h y; t y\n}\nqubit a, b, c\nt a\ntwo_t(b, c)\nc ^= a\n";
+    }
+    compiler::CompileOptions o;
+    o.target = ir::Target::CliffordT;
+    o.level = 1;
+    o.cost_by_line = true;
+    o.report = true;
+    frontend::SourceManager sm;
+    const compiler::CompileResult r = compiler::compile_file(path, o, sm);
+    REQUIRE(r.status == compiler::CompileStatus::Ok);
+    const ir::Resources all = ir::count_resources(r.circuit);
+    uint64_t t = 0, two = 0, ops = 0, qubits = 0;
+    for (const lowering::LineCost& row : r.line_costs) {
+        t += row.t_count;
+        two += row.two_qubit;
+        ops += row.ops;
+        qubits += row.qubits;
+        CHECK((row.line == 0 || row.line >= 5));  // nothing inside the routine (lines 1-4)
+    }
+    CHECK(t == all.t_count);
+    CHECK(two == all.two_qubit_count);
+    CHECK(ops == all.ops);
+    CHECK(qubits == all.qubits);
+    REQUIRE(r.line_costs.size() >= 3);
+    CHECK(r.line_costs[0].line == 7);  // the call, largest first
+    CHECK(r.line_costs[0].t_count == 2);
+    CHECK(r.line_costs[1].line == 6);
+    CHECK(r.line_costs[1].t_count == 1);
+    CHECK(r.report["cost_by_line"][0]["line"] == 7);
+    std::filesystem::remove_all(dir);
 }
