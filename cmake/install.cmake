@@ -22,7 +22,7 @@ set(WHITTLE_PUBLIC_HEADERS
   ir/angle.h ir/circuit.h ir/error.h ir/lit_vec.h ir/printer.h ir/resources.h ir/source_loc.h ir/target.h
   frontend/diagnostics.h frontend/limits.h frontend/load.h
   passes/pass.h passes/pipeline.h
-  output/report.h)
+  output/report.h output/cost_by_line.h)
 foreach(h ${WHITTLE_PUBLIC_HEADERS})
   get_filename_component(dir ${h} DIRECTORY)
   install(FILES ${PROJECT_SOURCE_DIR}/${h} DESTINATION ${CMAKE_INSTALL_INCLUDEDIR}/whittle/${dir})

@@ -62,7 +62,11 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         // -O3 repeats the round: merges expose cancellations and foldings, and vice versa.
         add({"merge-controls", "fold-phases", "cancel"});
     }
-    if (!opts.target) return p;
+    // Last of all (at -O1 and up): the work wires no op touches leave the output.
+    if (!opts.target) {
+        if (level >= 1) add({"drop-idle-wires"});
+        return p;
+    }
     // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
     // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
     // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
@@ -90,6 +94,7 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     }
     add({"to-target", "fuse-1q"});
     if (*opts.target != ir::Target::Nct && *opts.target != ir::Target::CliffordT) add({"resynth-2q", "fuse-1q"});
+    if (level >= 1) add({"drop-idle-wires"});
     return p;
 }
 

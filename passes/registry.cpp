@@ -8,6 +8,7 @@
 #include "ir/error.h"
 
 #include "passes/cancel.h"
+#include "passes/drop_idle_wires.h"
 #include "passes/fold_phases.h"
 #include "passes/fold_rotations.h"
 #include "passes/fuse_1q.h"
@@ -56,6 +57,7 @@ const std::vector<PassInfo>& all_passes() {
          Stage::LowLevel, fuse_1q},
         {"resynth-2q", "resynthesize two-qubit blocks by KAK with the fewest entangling gates", Stage::LowLevel,
          resynth_2q},
+        {"drop-idle-wires", "remove the ancilla and borrow wires no op touches", Stage::LowLevel, drop_idle_wires},
     };
     return passes;
 }

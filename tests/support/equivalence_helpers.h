@@ -10,10 +10,46 @@
 
 namespace whittle::testing {
 
+/// `b` on the wire table of `a`: each wire of b's registers goes to the wire of the register of
+/// that name and index in `a`; b's wires that `a` lacks (registers the compiler added) come after
+/// a's, as clean wires. `a`'s wires that `b` lacks (dropped by drop-idle-wires) stay idle. When the
+/// tables already agree, `b` is returned as it is.
+inline ir::Circuit on_wires_of(const ir::Circuit& a, const ir::Circuit& b) {
+    bool same = a.num_qubits() == b.num_qubits() && a.registers.size() == b.registers.size();
+    for (size_t r = 0; same && r < a.registers.size(); ++r)
+        same = a.registers[r].name == b.registers[r].name && a.registers[r].size == b.registers[r].size;
+    if (same) return b;
+    ir::Circuit out = a.empty_copy();
+    out.cregs = b.cregs;
+    out.num_cbits = b.num_cbits;
+    out.global_phase = b.global_phase;
+    std::vector<uint32_t> to(b.num_qubits());
+    for (const ir::Register& rb : b.registers) {
+        const int ra = a.find_register(rb.name);
+        if (ra >= 0 && a.registers[size_t(ra)].size >= rb.size) {
+            for (uint32_t i = 0; i < rb.size; ++i) to[rb.first + i] = a.registers[size_t(ra)].first + i;
+        } else {
+            const uint32_t first = out.add_register(rb.name + "_extra", rb.size, ir::Role::Clean);
+            for (uint32_t i = 0; i < rb.size; ++i) to[rb.first + i] = first + i;
+        }
+    }
+    for (ir::Op op : b.ops) {
+        ir::LitVec lits;
+        for (ir::Lit l : op.controls) lits.push_back(ir::Lit::make(to[l.wire()], l.positive()));
+        op.controls = std::move(lits);
+        if (op.target != ir::kNoWire) op.target = to[op.target];
+        if (op.target2 != ir::kNoWire) op.target2 = to[op.target2];
+        out.ops.push_back(std::move(op));
+    }
+    return out;
+}
+
 /// Distance up to global phase between the unitaries of a and b (same wires) restricted to the
 /// inputs where every Clean-role wire of `a` is |0>; outputs must agree in full (so clean wires
 /// must come back to |0>).
-inline double distance_on_clean_inputs(const ir::Circuit& a, const ir::Circuit& b) {
+inline double distance_on_clean_inputs(const ir::Circuit& a, const ir::Circuit& b_in) {
+    const ir::Circuit b = on_wires_of(a, b_in);
+    if (b.num_qubits() != a.num_qubits()) return 1e300;  // the compiler added wires: not this helper's case
     const Eigen::MatrixXcd ua = ir::circuit_unitary(a), ub = ir::circuit_unitary(b);
     uint64_t clean_mask = 0;
     for (uint32_t w = 0; w < a.num_qubits(); ++w)
@@ -32,7 +68,9 @@ inline double distance_on_clean_inputs(const ir::Circuit& a, const ir::Circuit& 
 /// Runs `ref` (no measurement) and `lowered` (may measure) from the same random states with clean
 /// wires at |0>, many times; returns the largest distance up to phase of the final states over all
 /// runs (every measurement branch must give the reference state).
-inline double worst_branch_distance(const ir::Circuit& ref, const ir::Circuit& lowered, int runs, uint64_t seed) {
+inline double worst_branch_distance(const ir::Circuit& ref, const ir::Circuit& lowered_in, int runs, uint64_t seed) {
+    const ir::Circuit lowered = on_wires_of(ref, lowered_in);
+    if (lowered.num_qubits() != ref.num_qubits()) return 1e300;
     double worst = 0;
     std::mt19937_64 rng(seed);
     for (int r = 0; r < runs; ++r) {
