@@ -44,6 +44,7 @@ struct CompileArgs {
     uint32_t extra_ancillas = 0;
     double epsilon = 1e-10;
     std::optional<double> total_error;
+    std::optional<uint32_t> qubit_limit;
     bool quiet = false;
     bool cost_by_line = false;
     std::vector<std::string> include_dirs;
@@ -113,6 +114,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.extra_ancillas = a.extra_ancillas;
     o.epsilon = a.epsilon;
     o.total_error = a.total_error;
+    o.qubit_limit = a.qubit_limit;
     o.passes = a.passes;
     o.dump_after = a.dump_after;
     o.stats = a.stats;
@@ -211,7 +213,10 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
         write_output(job.output, r.text);
         if (!a.quiet) {
             const ir::Resources res = ir::count_resources(r.circuit);
-            const std::string kept = r.kept_run.empty() ? "" : fmt::format(" (kept the run {}: cheaper)", r.kept_run);
+            std::string kept = r.kept_run.empty() ? ""
+                                                  : fmt::format(" (kept the run {}: {})", r.kept_run,
+                                                                r.limit_note.empty() ? "cheaper" : "it fits --qubit-limit");
+            if (!r.limit_note.empty()) kept += fmt::format(" ({})", r.limit_note);
             // T is the cost on clifford+t (and nct, which has none); on a rotation target every
             // non-Clifford rotation is one native rotation, so that is the figure shown.
             const bool rotation_target = !a.target.empty() && a.target != "clifford+t" && a.target != "nct";
@@ -346,6 +351,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_option("--total-error", args->total_error,
                     "error bound for the whole circuit (clifford+t), split evenly over the rotations it approximates; "
                     "instead of --epsilon");
+    cmd->add_option("--qubit-limit", args->qubit_limit,
+                    "the most qubits the output may have: the cheapest run that fits is kept (what the limit cost is "
+                    "printed); an error when none fits");
     cmd->add_flag("--cost-by-line", args->cost_by_line,
                   "print the output's T, two-qubit gates, rotations and qubits by source line, largest first (a "
                   "routine call's cost at the call's line)");

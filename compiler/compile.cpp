@@ -42,27 +42,34 @@ std::string emit_text(const ir::Circuit& c, Emit e) {
 /// Inputs up to this many ops also compile the alternative runs (compile_alternatives).
 constexpr size_t kAlternativesMaxOps = 2000;
 
-/// The lexicographic cost of a result under `m`: the chosen metric first, the others as tie-breaks.
-std::array<uint64_t, 4> cost_under(const ir::Resources& r, ir::Metric m) {
-    switch (m) {
-    case ir::Metric::TCount: return {r.t_count, r.two_qubit_count, r.depth, r.qubits};
-    case ir::Metric::TwoQubit: return {r.two_qubit_count, r.t_count, r.depth, r.qubits};
-    case ir::Metric::Depth: return {r.depth, r.t_count, r.two_qubit_count, r.qubits};
+}  // namespace
+
+std::array<uint64_t, 5> cost_under(const ir::Resources& r, const CompileOptions& o) {
+    const uint64_t over = o.qubit_limit && r.qubits > *o.qubit_limit ? 1 : 0;
+    switch (o.optimize_for) {
+    case ir::Metric::TCount: return {over, r.t_count, r.two_qubit_count, r.depth, r.qubits};
+    case ir::Metric::TwoQubit: return {over, r.two_qubit_count, r.t_count, r.depth, r.qubits};
+    case ir::Metric::Depth: return {over, r.depth, r.t_count, r.two_qubit_count, r.qubits};
     }
     return {};
 }
 
-}  // namespace
-
 std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const CompileOptions& o, size_t input_ops) {
     std::vector<std::pair<std::string, CompileOptions>> alts;
-    if (!o.passes.empty() || o.level < 2 || !o.target || input_ops > kAlternativesMaxOps) return alts;
+    if (!o.passes.empty() || o.level < 2 || !o.target || (input_ops > kAlternativesMaxOps && !o.qubit_limit)) return alts;
+    // Extra wires as asked or none; under --qubit-limit every count in between too, so a run that
+    // fits takes as many as fit.
+    std::vector<uint32_t> extra_counts = {o.extra_ancillas};
+    if (o.qubit_limit)
+        for (uint32_t k = o.extra_ancillas; k-- > 0;) extra_counts.push_back(k);
+    else if (o.extra_ancillas != 0)
+        extra_counts.push_back(0);
     // Every combination of: each level from -O1 up, measurement as asked or off, extra wires as
     // asked or none, each metric. The set of a run with fewer options is a subset of this one's,
     // so the kept result can only improve as options are added.
     for (int level = o.level; level >= 1; --level)
         for (bool measurement : {o.allow_measurement, false})
-            for (uint32_t extra : {o.extra_ancillas, uint32_t(0)})
+            for (uint32_t extra : extra_counts)
                 for (ir::Metric m : {o.optimize_for, ir::Metric::TCount, ir::Metric::TwoQubit, ir::Metric::Depth}) {
                     if (measurement && !o.allow_measurement) continue;
                     CompileOptions a = o;
@@ -75,7 +82,8 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
                     std::vector<std::string> why;
                     if (level != o.level) why.push_back(fmt::format("at -O{}", level));
                     if (measurement != o.allow_measurement) why.push_back("without --allow-measurement");
-                    if (extra != o.extra_ancillas) why.push_back("without --extra-ancillas");
+                    if (extra != o.extra_ancillas)
+                        why.push_back(extra == 0 ? std::string("without --extra-ancillas") : fmt::format("with --extra-ancillas {}", extra));
                     if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
                     if (why.empty()) continue;  // the run asked for, or a repeat of it
                     const std::string label = fmt::format("{}", fmt::join(why, ", "));
@@ -211,13 +219,21 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
     // metric, since each op's construction is priced before the later passes see it. Small inputs
     // compile those runs too and keep the cheapest (the first on a tie: the run asked for).
     CompileOptions kept_options;
+    // With --qubit-limit: the cheapest run whatever its width, to say what the limit cost.
+    CompileOptions unlimited = o;
+    unlimited.qubit_limit.reset();
+    ir::Resources unlimited_best = ir::count_resources(c);
+    uint32_t fewest_qubits = unlimited_best.qubits;
     if (!alternatives_input.ops.empty()) {
-        auto best = cost_under(ir::count_resources(c), o.optimize_for);
+        auto best = cost_under(unlimited_best, o);
         const CompileOptions* kept = nullptr;
         for (auto& [why, alt] : alternative_runs(o, alternatives_input.ops.size())) {
             ir::Circuit a = alternatives_input;
             std::vector<passes::PassRecord> records = passes::run_passes(a, pass_names(alt), pass_options(alt));
-            const auto cost = cost_under(ir::count_resources(a), o.optimize_for);
+            const ir::Resources res = ir::count_resources(a);
+            const auto cost = cost_under(res, o);
+            if (cost_under(res, unlimited) < cost_under(unlimited_best, unlimited)) unlimited_best = res;
+            fewest_qubits = std::min(fewest_qubits, res.qubits);
             if (cost < best) {
                 best = cost;
                 c = std::move(a);
@@ -241,6 +257,22 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
                 return r;
             }
             WHITTLE_ASSERT(ir::print_wq(a) == ir::print_wq(c));  // the rerun gave the kept circuit
+        }
+    }
+    if (o.qubit_limit) {
+        const ir::Resources kept_res = ir::count_resources(c);
+        if (kept_res.qubits > *o.qubit_limit)
+            throw UserError(fmt::format("--qubit-limit {}: no compile of this input fits (the fewest qubits found: {}{})",
+                                        *o.qubit_limit, fewest_qubits,
+                                        o.target ? "" : "; a --target lets compile try more constructions"));
+        if (cost_under(kept_res, unlimited) != cost_under(unlimited_best, unlimited)) {
+            const bool t = o.optimize_for == ir::Metric::TCount;
+            const bool two = o.optimize_for == ir::Metric::TwoQubit;
+            const char* what = t ? "T" : two ? "two-qubit" : "depth";
+            const uint64_t got = t ? kept_res.t_count : two ? kept_res.two_qubit_count : kept_res.depth;
+            const uint64_t free = t ? unlimited_best.t_count : two ? unlimited_best.two_qubit_count : unlimited_best.depth;
+            r.limit_note = fmt::format("--qubit-limit {}: {} {} instead of {} ({} qubits)", *o.qubit_limit, what, got, free,
+                                       unlimited_best.qubits);
         }
     }
     if (!o.passes.empty() && o.target) {
@@ -298,6 +330,10 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
         ri.records = r.records;
         r.report = lowering::compile_report(ri);
         if (o.cost_by_line) r.report["cost_by_line"] = lowering::cost_by_line_json(r.line_costs, c);
+        if (o.qubit_limit) {
+            r.report["options"]["qubit_limit"] = *o.qubit_limit;
+            r.report["qubit_limit_cost"] = r.limit_note.empty() ? lowering::Json(nullptr) : lowering::Json(r.limit_note);
+        }
     }
     r.circuit = std::move(c);
     return r;
@@ -372,10 +408,15 @@ CompileResult compile_file(const std::string& path, const CompileOptions& o, fro
     quiet.progress = nullptr;
     quiet.passes_done = nullptr;
     quiet.dump_after.clear();
-    CompileResult own = compile(std::move(fresh), quiet);
+    CompileResult own;
+    try {
+        own = compile(std::move(fresh), quiet);
+    } catch (const UserError&) {
+        if (!o.qubit_limit) throw;
+        return shared;  // fresh wires per call do not fit in --qubit-limit; shared ones do
+    }
     if (own.status != CompileStatus::Ok) return own;
-    if (cost_under(ir::count_resources(own.circuit), o.optimize_for) <
-        cost_under(ir::count_resources(shared.circuit), o.optimize_for)) {
+    if (cost_under(ir::count_resources(own.circuit), o) < cost_under(ir::count_resources(shared.circuit), o)) {
         own.kept_run = own.kept_run.empty() ? "with fresh work wires per call"
                                             : "with fresh work wires per call, " + own.kept_run;
         if (o.report) own.report["kept_run"] = own.kept_run;

@@ -2,6 +2,7 @@
 // report and the check's verdict out. The CLI, the Python module, `whittle demo` and the benchmarks call it.
 #pragma once
 
+#include <array>
 #include <cstdint>
 #include <functional>
 #include <iosfwd>
@@ -40,6 +41,11 @@ struct CompileOptions {
     /// rotations the synthesis approximates, so the report's approximation_error_bound stays within
     /// it; replaces `epsilon` (set one or the other). In [1e-15, 1).
     std::optional<double> total_error;
+    /// The most qubits the output may have: among the runs compile tries (levels, with and without
+    /// --allow-measurement and --extra-ancillas, each construction metric, shared or fresh work
+    /// wires) the cheapest that fits is kept, even when an unlimited run is cheaper; UserError when
+    /// none fits. Inputs of any size then try the alternative runs.
+    std::optional<uint32_t> qubit_limit;
     std::string passes;                ///< run exactly this comma-separated list ("" = the -O pipeline)
     std::vector<std::string> dump_after;  ///< print the circuit after these passes ("all": every one)
     bool stats = false;                   ///< one line per pass with its changes and counters
@@ -98,6 +104,9 @@ struct CompileResult {
     std::string kept_run;
     /// The output's cost by source line, largest first (CompileOptions::cost_by_line; else empty).
     std::vector<lowering::LineCost> line_costs;
+    /// With CompileOptions::qubit_limit, when the cheapest run did not fit: what the limit cost,
+    /// e.g. "--qubit-limit 12: T 290 instead of 269 (17 qubits)"; else "".
+    std::string limit_note;
 };
 
 /// Inputs up to this many ops keep a copy of themselves for the final check; larger ones are
@@ -121,6 +130,10 @@ void check_options(const CompileOptions& o);
 /// --passes list, -O0/-O1, no target, or inputs over 2000 ops. compile() keeps the cheapest result
 /// under CompileOptions::optimize_for (the run asked for on a tie).
 std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const CompileOptions& o, size_t input_ops);
+
+/// The lexicographic cost of a circuit under `o`: over --qubit-limit first (0 or 1), then the
+/// metric of --optimize-for, the other metrics, and qubits.
+std::array<uint64_t, 5> cost_under(const ir::Resources& r, const CompileOptions& o);
 
 /// Compiles `input`. UserError for bad options, an input that leaves a declared ancilla dirty, or
 /// a --passes list that leaves the target; a failed check is a status, not an exception.

@@ -21,6 +21,7 @@
 #include "ir/resources.h"
 #include "output/compile_report.h"
 #include "support/dense_unitary.h"
+#include "support/equivalence_helpers.h"
 
 using namespace whittle;
 
@@ -50,6 +51,11 @@ double operator_distance_up_to_phase(const test::Mat& a, const test::Mat& b) {
     double gap = 2 * M_PI - (t.back() - t.front());  // the largest gap between neighbours on the circle
     for (size_t k = 1; k < t.size(); ++k) gap = std::max(gap, t[k] - t[k - 1]);
     return 2 * std::sin((2 * M_PI - gap) / 4);
+}
+
+/// Distance up to global phase of the output from the input on inputs with clean wires at |0>.
+double testing_distance(const ir::Circuit& in, const ir::Circuit& out) {
+    return whittle::testing::distance_on_clean_inputs(in, out);
 }
 
 }  // namespace
@@ -171,4 +177,38 @@ TEST_CASE("cost by source line: a routine call's cost at the call, columns addin
     CHECK(r.line_costs[1].t_count == 1);
     CHECK(r.report["cost_by_line"][0]["line"] == 7);
     std::filesystem::remove_all(dir);
+}
+
+TEST_CASE("qubit limit: the cheapest run that fits, what it cost, and a clear error when none fits") {
+    // A 5-control X with no work wire: with --extra-ancillas 3 the lowering has clean wires for a
+    // ladder (fewer T); under a limit of the program's own 6 wires it must do without them.
+    const std::string program = "qubit c[5], t\nt ^= c[0] & c[1] & c[2] & c[3] & c[4]\n";
+    compiler::CompileOptions o;
+    o.target = ir::Target::CliffordT;
+    o.extra_ancillas = 3;
+    o.report = true;
+    const compiler::CompileResult wide = compiler::compile(load(program), o);
+    const ir::Resources w = ir::count_resources(wide.circuit);
+    REQUIRE(w.qubits > 6);  // the extra wires pay for themselves without a limit
+    o.qubit_limit = 6;
+    const compiler::CompileResult narrow = compiler::compile(load(program), o);
+    REQUIRE(narrow.status == compiler::CompileStatus::Ok);
+    const ir::Resources n = ir::count_resources(narrow.circuit);
+    CHECK(n.qubits <= 6);
+    CHECK(n.t_count >= w.t_count);
+    if (n.t_count > w.t_count) CHECK(narrow.limit_note.find("instead of") != std::string::npos);
+    CHECK(narrow.report["options"]["qubit_limit"] == 6);
+    // The output is still the program (dense check against the input).
+    CHECK(testing_distance(load(program), narrow.circuit) < 1e-9);
+    // A looser limit is never worse: with one extra wire allowed the run takes it.
+    o.qubit_limit = 7;
+    const compiler::CompileResult seven = compiler::compile(load(program), o);
+    const ir::Resources s7 = ir::count_resources(seven.circuit);
+    CHECK(s7.qubits <= 7);
+    CHECK(s7.t_count <= n.t_count);
+    CHECK(s7.t_count >= w.t_count);
+    CHECK(testing_distance(load(program), seven.circuit) < 1e-9);
+    // Fewer wires than the program's own data: refused, naming the fewest found.
+    o.qubit_limit = 5;
+    CHECK_THROWS_WITH_AS(compiler::compile(load(program), o), doctest::Contains("no compile of this input fits"), UserError);
 }
