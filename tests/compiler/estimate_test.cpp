@@ -53,9 +53,10 @@ double operator_distance_up_to_phase(const test::Mat& a, const test::Mat& b) {
     return 2 * std::sin((2 * M_PI - gap) / 4);
 }
 
-/// Distance up to global phase of the output from the input on inputs with clean wires at |0>.
+/// Distance up to global phase of the output from the input on inputs with clean wires at |0>,
+/// on the output's wires (the input mapped onto them by register name: added wires start clean).
 double testing_distance(const ir::Circuit& in, const ir::Circuit& out) {
-    return whittle::testing::distance_on_clean_inputs(in, out);
+    return whittle::testing::distance_on_clean_inputs(whittle::testing::on_wires_of(out, in), out);
 }
 
 }  // namespace
