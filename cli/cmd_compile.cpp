@@ -41,6 +41,7 @@ struct CompileArgs {
     bool time_passes = false;
     bool stats = false;
     uint32_t extra_ancillas = 0;
+    uint32_t gadget_wires = 0;
     double epsilon = 1e-10;
     bool quiet = false;
     std::vector<std::string> include_dirs;
@@ -108,6 +109,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.level = a.level;
     o.allow_measurement = a.allow_measurement;
     o.extra_ancillas = a.extra_ancillas;
+    o.gadget_wires = a.gadget_wires;
     o.epsilon = a.epsilon;
     o.passes = a.passes;
     o.dump_after = a.dump_after;
@@ -302,6 +304,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
                     "REGISTER=ROLE: declare a register of the input qubit, ancilla (starts and ends at |0>, checked) or "
                     "borrow (any state, restored); for OpenQASM inputs, which cannot declare it (repeatable)");
     cmd->add_option("--extra-ancillas", args->extra_ancillas, "fresh clean wires the lowering may add (default 0)");
+    cmd->add_option("--gadget-wires", args->gadget_wires,
+                    "with --allow-measurement on clifford+t at -O2/-O3: fresh clean wires reduce-t may add to replace "
+                    "inner Hadamards by measured gadgets, kept only for fewer T (default 0)");
     cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
     cmd->add_flag("-q,--quiet", args->quiet, "no progress indicator");
     cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");

@@ -68,6 +68,7 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
                     CompileOptions a = o;
                     a.level = level;
                     a.allow_measurement = measurement;
+                    a.gadget_wires = measurement ? o.gadget_wires : 0;
                     a.extra_ancillas = extra;
                     a.optimize_for = m;
                     a.passes_done = nullptr;
@@ -102,6 +103,7 @@ passes::PassOptions pass_options(const CompileOptions& o) {
     po.optimize_for = o.optimize_for;
     po.allow_measurement = o.allow_measurement;
     po.extra_ancillas = o.extra_ancillas;
+    po.gadget_wires = o.gadget_wires;
     po.epsilon = o.epsilon;
     return po;
 }
@@ -113,6 +115,8 @@ std::vector<std::string> pass_names(const CompileOptions& o) {
 void check_options(const CompileOptions& o) {
     if (!(o.epsilon >= kMinEpsilon && o.epsilon < 1))
         throw UserError(fmt::format("--epsilon must lie in [1e-15, 1), got {}", o.epsilon));
+    if (o.gadget_wires > 0 && !o.allow_measurement)
+        throw UserError("--gadget-wires needs --allow-measurement (a Hadamard gadget measures its wire)");
     for (size_t i = 0; i < o.register_roles.size(); ++i)
         for (size_t j = 0; j < i; ++j)
             if (o.register_roles[i].first == o.register_roles[j].first)
