@@ -41,6 +41,8 @@ std::string emit_text(const ir::Circuit& c, Emit e) {
 
 /// Inputs up to this many ops also compile the alternative runs (compile_alternatives).
 constexpr size_t kAlternativesMaxOps = 2000;
+/// Up to this many input ops a compile with gadget wires also runs without them (see alternative_runs).
+constexpr size_t kGadgetAlternativeMaxOps = size_t(1) << 20;
 
 /// The lexicographic cost of a result under `m`: the chosen metric first, the others as tie-breaks.
 std::array<uint64_t, 4> cost_under(const ir::Resources& r, ir::Metric m) {
@@ -56,33 +58,52 @@ std::array<uint64_t, 4> cost_under(const ir::Resources& r, ir::Metric m) {
 
 std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const CompileOptions& o, size_t input_ops) {
     std::vector<std::pair<std::string, CompileOptions>> alts;
-    if (!o.passes.empty() || o.level < 2 || !o.target || input_ops > kAlternativesMaxOps) return alts;
-    // Every combination of: each level from -O1 up, measurement as asked or off, extra wires as
-    // asked or none, each metric. The set of a run with fewer options is a subset of this one's,
-    // so the kept result can only improve as options are added.
+    if (!o.passes.empty() || o.level < 2 || !o.target) return alts;
+    const bool gadgets = o.allow_measurement && o.gadget_wires > 0;
+    if (input_ops > kAlternativesMaxOps) {
+        // A large input compiles the run asked for only; with gadget wires, also the run without
+        // them: reduce-t keeps its gadget copy only for fewer T, but the passes after it (gate-cancel
+        // at -O3, fuse-1q) might still take more from the plain circuit. (Beyond kGadgetMaxOps
+        // reduce-t does not try gadgets at all.)
+        if (gadgets && input_ops <= kGadgetAlternativeMaxOps) {
+            CompileOptions a = o;
+            a.gadget_wires = 0;
+            a.passes_done = nullptr;
+            a.progress = nullptr;
+            alts.emplace_back("without --gadget-wires", std::move(a));
+        }
+        return alts;
+    }
+    // Every combination of: each level from -O1 up, measurement as asked or off, gadget wires
+    // (with measurement) as asked or none, extra wires as asked or none, each metric. The set of a
+    // run with fewer options is a subset of this one's, so the kept result can only improve as
+    // options are added.
     for (int level = o.level; level >= 1; --level)
         for (bool measurement : {o.allow_measurement, false})
-            for (uint32_t extra : {o.extra_ancillas, uint32_t(0)})
-                for (ir::Metric m : {o.optimize_for, ir::Metric::TCount, ir::Metric::TwoQubit, ir::Metric::Depth}) {
-                    if (measurement && !o.allow_measurement) continue;
-                    CompileOptions a = o;
-                    a.level = level;
-                    a.allow_measurement = measurement;
-                    a.gadget_wires = measurement ? o.gadget_wires : 0;
-                    a.extra_ancillas = extra;
-                    a.optimize_for = m;
-                    a.passes_done = nullptr;
-                    a.progress = nullptr;
-                    std::vector<std::string> why;
-                    if (level != o.level) why.push_back(fmt::format("at -O{}", level));
-                    if (measurement != o.allow_measurement) why.push_back("without --allow-measurement");
-                    if (extra != o.extra_ancillas) why.push_back("without --extra-ancillas");
-                    if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
-                    if (why.empty()) continue;  // the run asked for, or a repeat of it
-                    const std::string label = fmt::format("{}", fmt::join(why, ", "));
-                    if (std::any_of(alts.begin(), alts.end(), [&](const auto& p) { return p.first == label; })) continue;
-                    alts.emplace_back(label, std::move(a));
-                }
+            for (uint32_t gadget_wires : {o.gadget_wires, uint32_t(0)})
+                for (uint32_t extra : {o.extra_ancillas, uint32_t(0)})
+                    for (ir::Metric m : {o.optimize_for, ir::Metric::TCount, ir::Metric::TwoQubit, ir::Metric::Depth}) {
+                        if (measurement && !o.allow_measurement) continue;
+                        if (!measurement && gadget_wires > 0) continue;  // gadgets need measurement
+                        CompileOptions a = o;
+                        a.level = level;
+                        a.allow_measurement = measurement;
+                        a.gadget_wires = gadget_wires;
+                        a.extra_ancillas = extra;
+                        a.optimize_for = m;
+                        a.passes_done = nullptr;
+                        a.progress = nullptr;
+                        std::vector<std::string> why;
+                        if (level != o.level) why.push_back(fmt::format("at -O{}", level));
+                        if (measurement != o.allow_measurement) why.push_back("without --allow-measurement");
+                        else if (gadget_wires != o.gadget_wires) why.push_back("without --gadget-wires");
+                        if (extra != o.extra_ancillas) why.push_back("without --extra-ancillas");
+                        if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
+                        if (why.empty()) continue;  // the run asked for, or a repeat of it
+                        const std::string label = fmt::format("{}", fmt::join(why, ", "));
+                        if (std::any_of(alts.begin(), alts.end(), [&](const auto& p) { return p.first == label; })) continue;
+                        alts.emplace_back(label, std::move(a));
+                    }
     return alts;
 }
 
