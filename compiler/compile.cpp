@@ -74,36 +74,34 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
         }
         return alts;
     }
-    // Every combination of: each level from -O1 up, measurement as asked or off, gadget wires
-    // (with measurement) as asked or none, extra wires as asked or none, each metric. The set of a
-    // run with fewer options is a subset of this one's, so the kept result can only improve as
-    // options are added.
+    // Every combination of: each level from -O1 up, measurement as asked or off, extra wires as
+    // asked or none, each metric; gadget wires only in the run asked for (every alternative runs
+    // without them). The set of a run with fewer options is a subset of this one's, so the kept
+    // result can only improve as options are added.
     for (int level = o.level; level >= 1; --level)
         for (bool measurement : {o.allow_measurement, false})
-            for (uint32_t gadget_wires : {o.gadget_wires, uint32_t(0)})
-                for (uint32_t extra : {o.extra_ancillas, uint32_t(0)})
-                    for (ir::Metric m : {o.optimize_for, ir::Metric::TCount, ir::Metric::TwoQubit, ir::Metric::Depth}) {
-                        if (measurement && !o.allow_measurement) continue;
-                        if (!measurement && gadget_wires > 0) continue;  // gadgets need measurement
-                        CompileOptions a = o;
-                        a.level = level;
-                        a.allow_measurement = measurement;
-                        a.gadget_wires = gadget_wires;
-                        a.extra_ancillas = extra;
-                        a.optimize_for = m;
-                        a.passes_done = nullptr;
-                        a.progress = nullptr;
-                        std::vector<std::string> why;
-                        if (level != o.level) why.push_back(fmt::format("at -O{}", level));
-                        if (measurement != o.allow_measurement) why.push_back("without --allow-measurement");
-                        else if (gadget_wires != o.gadget_wires) why.push_back("without --gadget-wires");
-                        if (extra != o.extra_ancillas) why.push_back("without --extra-ancillas");
-                        if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
-                        if (why.empty()) continue;  // the run asked for, or a repeat of it
-                        const std::string label = fmt::format("{}", fmt::join(why, ", "));
-                        if (std::any_of(alts.begin(), alts.end(), [&](const auto& p) { return p.first == label; })) continue;
-                        alts.emplace_back(label, std::move(a));
-                    }
+            for (uint32_t extra : {o.extra_ancillas, uint32_t(0)})
+                for (ir::Metric m : {o.optimize_for, ir::Metric::TCount, ir::Metric::TwoQubit, ir::Metric::Depth}) {
+                    if (measurement && !o.allow_measurement) continue;
+                    CompileOptions a = o;
+                    a.level = level;
+                    a.allow_measurement = measurement;
+                    a.gadget_wires = 0;
+                    a.extra_ancillas = extra;
+                    a.optimize_for = m;
+                    a.passes_done = nullptr;
+                    a.progress = nullptr;
+                    std::vector<std::string> why;
+                    if (level != o.level) why.push_back(fmt::format("at -O{}", level));
+                    if (measurement != o.allow_measurement) why.push_back("without --allow-measurement");
+                    else if (o.gadget_wires > 0) why.push_back("without --gadget-wires");
+                    if (extra != o.extra_ancillas) why.push_back("without --extra-ancillas");
+                    if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
+                    if (why.empty()) continue;  // the run asked for, or a repeat of it
+                    const std::string label = fmt::format("{}", fmt::join(why, ", "));
+                    if (std::any_of(alts.begin(), alts.end(), [&](const auto& p) { return p.first == label; })) continue;
+                    alts.emplace_back(label, std::move(a));
+                }
     return alts;
 }
 
