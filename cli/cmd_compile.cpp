@@ -42,6 +42,7 @@ struct CompileArgs {
     bool time_passes = false;
     bool stats = false;
     uint32_t extra_ancillas = 0;
+    uint32_t gadget_wires = 0;
     double epsilon = 1e-10;
     std::optional<double> total_error;
     std::optional<uint32_t> qubit_limit;
@@ -112,6 +113,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.level = a.level;
     o.allow_measurement = a.allow_measurement;
     o.extra_ancillas = a.extra_ancillas;
+    o.gadget_wires = a.gadget_wires;
     o.epsilon = a.epsilon;
     o.total_error = a.total_error;
     o.qubit_limit = a.qubit_limit;
@@ -347,6 +349,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
                     "REGISTER=ROLE: declare a register of the input qubit, ancilla (starts and ends at |0>, checked) or "
                     "borrow (any state, restored); for OpenQASM inputs, which cannot declare it (repeatable)");
     cmd->add_option("--extra-ancillas", args->extra_ancillas, "fresh clean wires the lowering may add (default 0)");
+    cmd->add_option("--gadget-wires", args->gadget_wires,
+                    "with --allow-measurement on clifford+t at -O2/-O3: fresh clean wires reduce-t may add to replace "
+                    "inner Hadamards by measured gadgets, kept only for fewer T (default 0)");
     cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
     cmd->add_option("--total-error", args->total_error,
                     "error bound for the whole circuit (clifford+t), split evenly over the rotations it approximates; "

@@ -41,6 +41,8 @@ std::string emit_text(const ir::Circuit& c, Emit e) {
 
 /// Inputs up to this many ops also compile the alternative runs (compile_alternatives).
 constexpr size_t kAlternativesMaxOps = 2000;
+/// Up to this many input ops a compile with gadget wires also runs without them (see alternative_runs).
+constexpr size_t kGadgetAlternativeMaxOps = size_t(1) << 20;
 
 }  // namespace
 
@@ -56,7 +58,22 @@ std::array<uint64_t, 5> cost_under(const ir::Resources& r, const CompileOptions&
 
 std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const CompileOptions& o, size_t input_ops) {
     std::vector<std::pair<std::string, CompileOptions>> alts;
-    if (!o.passes.empty() || o.level < 2 || !o.target || (input_ops > kAlternativesMaxOps && !o.qubit_limit)) return alts;
+    if (!o.passes.empty() || o.level < 2 || !o.target) return alts;
+    const bool gadgets = o.allow_measurement && o.gadget_wires > 0;
+    if (input_ops > kAlternativesMaxOps && !o.qubit_limit) {
+        // A large input compiles the run asked for only; with gadget wires, also the run without
+        // them: reduce-t keeps its gadget copy only for fewer T, but the passes after it (gate-cancel
+        // at -O3, fuse-1q) might still take more from the plain circuit. (Beyond kGadgetMaxOps
+        // reduce-t does not try gadgets at all.)
+        if (gadgets && input_ops <= kGadgetAlternativeMaxOps) {
+            CompileOptions a = o;
+            a.gadget_wires = 0;
+            a.passes_done = nullptr;
+            a.progress = nullptr;
+            alts.emplace_back("without --gadget-wires", std::move(a));
+        }
+        return alts;
+    }
     // Extra wires as asked or none; under --qubit-limit every count in between too, so a run that
     // fits takes as many as fit.
     std::vector<uint32_t> extra_counts = {o.extra_ancillas};
@@ -65,8 +82,9 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
     else if (o.extra_ancillas != 0)
         extra_counts.push_back(0);
     // Every combination of: each level from -O1 up, measurement as asked or off, extra wires as
-    // asked or none, each metric. The set of a run with fewer options is a subset of this one's,
-    // so the kept result can only improve as options are added.
+    // asked or none, each metric; gadget wires only in the run asked for (every alternative runs
+    // without them). The set of a run with fewer options is a subset of this one's, so the kept
+    // result can only improve as options are added.
     for (int level = o.level; level >= 1; --level)
         for (bool measurement : {o.allow_measurement, false})
             for (uint32_t extra : extra_counts)
@@ -75,6 +93,7 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
                     CompileOptions a = o;
                     a.level = level;
                     a.allow_measurement = measurement;
+                    a.gadget_wires = 0;
                     a.extra_ancillas = extra;
                     a.optimize_for = m;
                     a.passes_done = nullptr;
@@ -82,6 +101,7 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
                     std::vector<std::string> why;
                     if (level != o.level) why.push_back(fmt::format("at -O{}", level));
                     if (measurement != o.allow_measurement) why.push_back("without --allow-measurement");
+                    else if (o.gadget_wires > 0) why.push_back("without --gadget-wires");
                     if (extra != o.extra_ancillas)
                         why.push_back(extra == 0 ? std::string("without --extra-ancillas") : fmt::format("with --extra-ancillas {}", extra));
                     if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
@@ -110,6 +130,7 @@ passes::PassOptions pass_options(const CompileOptions& o) {
     po.optimize_for = o.optimize_for;
     po.allow_measurement = o.allow_measurement;
     po.extra_ancillas = o.extra_ancillas;
+    po.gadget_wires = o.gadget_wires;
     po.epsilon = o.epsilon;
     return po;
 }
@@ -128,6 +149,8 @@ void check_options(const CompileOptions& o) {
             throw UserError("--total-error and --epsilon both set: --total-error splits the whole circuit's error over "
                             "its rotations, --epsilon sets each rotation's; give one");
     }
+    if (o.gadget_wires > 0 && !o.allow_measurement)
+        throw UserError("--gadget-wires needs --allow-measurement (a Hadamard gadget measures its wire)");
     for (size_t i = 0; i < o.register_roles.size(); ++i)
         for (size_t j = 0; j < i; ++j)
             if (o.register_roles[i].first == o.register_roles[j].first)

@@ -36,6 +36,9 @@ struct CompileOptions {
     ir::Metric optimize_for = ir::Metric::TCount;
     bool allow_measurement = false;    ///< measurement-based uncompute and feed-forward allowed
     uint32_t extra_ancillas = 0;       ///< fresh clean wires the lowering may add
+    /// Fresh clean wires reduce-t may add to replace inner H gates by measured Hadamard gadgets
+    /// (only with allow_measurement; 0 = none). Every stretch reuses them.
+    uint32_t gadget_wires = 0;
     double epsilon = 1e-10;            ///< per-rotation approximation error (clifford+t), in [1e-15, 1)
     /// The approximation error allowed for the whole circuit (clifford+t): split evenly over the
     /// rotations the synthesis approximates, so the report's approximation_error_bound stays within

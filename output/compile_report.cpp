@@ -95,6 +95,7 @@ Json compile_report(const CompileReportInput& in) {
         {"optimize_for", ir::metric_name(in.options.optimize_for)},
         {"allow_measurement", in.options.allow_measurement},
         {"extra_ancillas", in.options.extra_ancillas},
+        {"gadget_wires", in.options.gadget_wires},
         {"epsilon", in.options.epsilon},
         {"passes", in.explicit_passes.empty() ? Json(nullptr) : Json(in.explicit_passes)},
         {"emit", in.emit},

@@ -22,6 +22,7 @@ struct PassOptions {
     Metric optimize_for = Metric::TCount;
     bool allow_measurement = false;   ///< measurement-based uncompute and feed-forward allowed
     uint32_t extra_ancillas = 0;      ///< fresh clean wires the lowering may add
+    uint32_t gadget_wires = 0;        ///< fresh clean wires reduce-t may add for Hadamard gadgets (with allow_measurement)
     double epsilon = 1e-10;           ///< per-rotation approximation error (clifford+t)
 };
 

@@ -3,9 +3,20 @@
 
 #include <algorithm>
 
+#include <fmt/format.h>
+
+#include "ir/resources.h"
 #include "tcount/engine.h"
+#include "tcount/hadamard_frames.h"
+#include "tcount/hadamard_gadgets.h"
 
 namespace whittle::passes {
+namespace {
+
+/// Above this many ops the gadget run (a second copy of the circuit) is not tried.
+constexpr size_t kGadgetMaxOps = size_t(1) << 21;
+
+}  // namespace
 
 PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
     PassResult result;
@@ -32,7 +43,43 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
     }
     s.cnots_may_grow = opts.optimize_for == Metric::TCount;
     tcount::EngineStats st;
+    // With measurement allowed and gadget wires granted, a second run on a copy first replaces the
+    // inner H gates by Hadamard gadgets (tcount/hadamard_gadgets.h), so that the engine sees whole
+    // stretches as one region on n + h wires; it is kept only when it ends with fewer T gates
+    // than the plain run, so the option never makes the T-count worse.
+    const bool gadgets = opts.allow_measurement && opts.gadget_wires > 0 && c.ops.size() <= kGadgetMaxOps;
+    ir::Circuit with_gadgets;
+    if (gadgets) with_gadgets = c;
     result.changed = tcount::reduce_t_count(c, s, st);
+    if (gadgets) {
+        tcount::GadgetSettings gs;
+        gs.max_wires = opts.gadget_wires;
+        // A stretch no wider than the regions TODD runs on: a wider one would only be resynthesized.
+        gs.max_width = std::min<uint32_t>({s.max_width, s.max_todd_width, 64});
+        tcount::GadgetStats gst;
+        tcount::EngineStats gst_engine;
+        const size_t frames = tcount::exchange_hadamard_frames(with_gadgets);
+        if (tcount::insert_hadamard_gadgets(with_gadgets, gs, gst)) {
+            tcount::EngineSettings gsettings = s;
+            gsettings.exchange_frames = false;
+            tcount::reduce_t_count(with_gadgets, gsettings, gst_engine);
+            const ir::TAndCnotCount plain_count = ir::count_t_and_cnot(c), gadget_count = ir::count_t_and_cnot(with_gadgets);
+            result.count("gadgets", int64_t(gst.gadgets));
+            result.count("gadget-run-t", int64_t(gadget_count.t_count));
+            const bool keep = gadget_count.t_count < plain_count.t_count;
+            result.notes.push_back(fmt::format(
+                "Hadamard gadgets ({} on {} fresh wire(s), --gadget-wires {}): T {} against {} without, CNOT {} against {}; {}",
+                gst.gadgets, gst.wires, opts.gadget_wires, gadget_count.t_count, plain_count.t_count,
+                gadget_count.cnot_count, plain_count.cnot_count, keep ? "kept" : "not kept (no fewer T)"));
+            if (keep) {
+                c = std::move(with_gadgets);
+                st = gst_engine;
+                st.hadamards_removed += frames;
+                result.changed = true;
+                result.count("gadget-wires", int64_t(gst.wires));
+            }
+        }
+    }
     if (st.hadamards_removed) result.count("hadamards-removed", int64_t(st.hadamards_removed));
     result.count("regions", int64_t(st.regions));
     result.count("ops-read", int64_t(st.ops_read));

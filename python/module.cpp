@@ -92,7 +92,7 @@ ir::Metric parse_metric(const std::string& s) {
 
 PyCircuit compile(const PyCircuit& in, const std::string& target, int level, bool allow_measurement,
                   const std::string& optimize_for, const std::optional<std::string>& pass_list, double epsilon,
-                  uint32_t extra_ancillas, std::optional<double> total_error,
+                  uint32_t extra_ancillas, uint32_t gadget_wires, std::optional<double> total_error,
                   std::optional<uint32_t> qubit_limit) {
     if (level < 0 || level > 3) throw PyError(fmt::format("level must be 0, 1, 2 or 3, not {}", level));
     compiler::CompileOptions o;
@@ -103,6 +103,7 @@ PyCircuit compile(const PyCircuit& in, const std::string& target, int level, boo
     o.total_error = total_error;
     o.qubit_limit = qubit_limit;
     o.extra_ancillas = extra_ancillas;
+    o.gadget_wires = gadget_wires;
     o.passes = pass_list.value_or("");
     o.check = false;
     o.report = true;  // count() returns it
@@ -159,7 +160,7 @@ PYBIND11_MODULE(whittle, m) {
     py::class_<PyCircuit>(m, "Circuit", "a circuit read by whittle.load, or the result of Circuit.compile")
         .def("compile", &compile, py::arg("target") = "clifford+t", py::arg("level") = 2,
              py::arg("allow_measurement") = false, py::arg("optimize_for") = "t", py::arg("passes") = py::none(),
-             py::arg("epsilon") = 1e-10, py::arg("extra_ancillas") = 0,
+             py::arg("epsilon") = 1e-10, py::arg("extra_ancillas") = 0, py::arg("gadget_wires") = 0,
              py::arg("total_error") = py::none(), py::arg("qubit_limit") = py::none(),
              "optimize and lower into a native gate set; returns a new Circuit (this one is unchanged)")
         .def("count", &count,

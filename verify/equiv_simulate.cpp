@@ -156,11 +156,13 @@ using BranchFn = std::function<bool(const Vec&, const std::string&, double)>;
 /// `sampled` random ones). Returns false when `done` asked to stop.
 bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vector<uint8_t> cbits,
                   const std::string& path, double prob, uint64_t discard, std::mt19937_64& rng, bool enumerate,
-                  const BranchFn& done) {
+                  const Deadline& dl, const BranchFn& done) {
+    if (dl.expired()) return false;
     std::string trail = path;
     for (size_t i = from; i < c.ops.size(); ++i) {
         const ir::Op& op = c.ops[i];
         if (!ir::condition_holds(op, c, cbits)) continue;
+        if ((i & 15) == 0 && dl.expired()) return false;  // an op on 2^20 amplitudes takes milliseconds
         if (!enumerate || (op.kind != ir::OpKind::Measure && op.kind != ir::OpKind::Reset)) {
             s.apply(op, c, cbits, rng);
             if (op.kind == ir::OpKind::Measure)
@@ -189,7 +191,7 @@ bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vec
                 step = fmt::format("reset {} (was {})", c.wire_name(op.target), outcome);
             }
             if (!run_branches(c, i + 1, std::move(t), std::move(bits), trail + (trail.empty() ? "" : ", ") + step,
-                              prob * p, discard, rng, enumerate, done))
+                              prob * p, discard, rng, enumerate, dl, done))
                 return false;
         }
         return true;
@@ -209,15 +211,17 @@ bool run_branches(const ir::Circuit& c, size_t from, ir::StateVector s, std::vec
 }
 
 /// Every branch of `c` from `input` (all of them when `enumerate`, else kSampledBranches random ones).
+/// Stops (false) when `fn` asks to or the deadline passes: a sampled run of a thousand ops at 20
+/// wires takes seconds, so the deadline is read along each run, not only per input state.
 bool for_each_branch(const Aligned& al, const ir::Circuit& c, const Vec& input, bool enumerate, std::mt19937_64& rng,
-                     const BranchFn& fn) {
+                     const Deadline& dl, const BranchFn& fn) {
     const uint64_t discard = discarded_wires(al, c);
     const int runs = enumerate || !nonunitary(c) ? 1 : kSampledBranches;
     for (int r = 0; r < runs; ++r) {
         ir::StateVector start(al.num_wires());
         start.amplitudes() = input;
         if (!run_branches(c, 0, std::move(start), std::vector<uint8_t>(c.num_cbits, 0), "", 1.0 / runs, discard, rng,
-                          enumerate, fn))
+                          enumerate, dl, fn))
             return false;
     }
     return true;
@@ -236,7 +240,7 @@ EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline
         // Deterministic reference: every branch of the first circuit gives one state (up to phase).
         Vec ref;
         bool have_ref = false, deterministic = true;
-        for_each_branch(al, al.a, input, enumerate, rng, [&](const Vec& out, const std::string&, double) {
+        for_each_branch(al, al.a, input, enumerate, rng, dl, [&](const Vec& out, const std::string&, double) {
             ++total;
             if (!have_ref) {
                 ref = out;
@@ -246,9 +250,10 @@ EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline
             deterministic = (out - phase_between(out, ref) * ref).norm() <= kTolerance;
             return deterministic;
         });
+        if (dl.expired()) return inconclusive(name::kBranches, "time budget exhausted");
         if (deterministic) {
             std::string failure;
-            for_each_branch(al, al.b, input, enumerate, rng, [&](const Vec& out, const std::string& path, double) {
+            for_each_branch(al, al.b, input, enumerate, rng, dl, [&](const Vec& out, const std::string& path, double) {
                 ++total;
                 const double d = (out - phase_between(out, ref) * ref).norm();
                 if (d <= kTolerance) return true;
@@ -259,6 +264,7 @@ EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline
             });
             if (!failure.empty())
                 return not_equivalent(name::kBranches, "numerical (a measurement branch gives another state)", failure);
+            if (dl.expired()) return inconclusive(name::kBranches, "time budget exhausted");
             continue;
         }
         // The first circuit's outcome decides its output state: compare the output mixtures instead.
@@ -269,12 +275,13 @@ EquivResult branches(const Aligned& al, const EquivOptions& opts, const Deadline
         Eigen::MatrixXcd rho[2];
         for (int side = 0; side < 2; ++side) {
             rho[side] = Eigen::MatrixXcd::Zero(input.size(), input.size());
-            for_each_branch(al, side == 0 ? al.a : al.b, input, true, rng, [&](const Vec& out, const std::string&, double p) {
+            for_each_branch(al, side == 0 ? al.a : al.b, input, true, rng, dl, [&](const Vec& out, const std::string&, double p) {
                 ++total;
                 rho[side] += p * out * out.adjoint();
                 return true;
             });
         }
+        if (dl.expired()) return inconclusive(name::kBranches, "time budget exhausted");
         const double d = (rho[0] - rho[1]).norm();
         if (d > kTolerance)
             return not_equivalent(name::kBranches, "numerical (the output mixtures differ)",

@@ -145,3 +145,41 @@ TEST_CASE("shared or fresh routine work wires: compile_file keeps the cheaper of
     }
     std::filesystem::remove_all(dir);
 }
+
+TEST_CASE("--gadget-wires never raises T, and large inputs also compile without the gadgets") {
+    // Large inputs: the run asked for and, with gadget wires, the same run without them.
+    compiler::CompileOptions o;
+    o.target = ir::Target::CliffordT;
+    o.allow_measurement = true;
+    o.gadget_wires = 8;
+    const auto large = compiler::alternative_runs(o, 5000);
+    REQUIRE(large.size() == 1);
+    CHECK(large[0].first == "without --gadget-wires");
+    CHECK(large[0].second.gadget_wires == 0);
+    CHECK(large[0].second.allow_measurement);
+    o.gadget_wires = 0;
+    CHECK(compiler::alternative_runs(o, 5000).empty());
+    // Small inputs: T with gadget wires at most T without them, on random programs.
+    std::mt19937_64 rng(1923);
+    test::RandomCircuitOptions ro;
+    ro.max_ops = 14;
+    ro.low_level = false;
+    ro.inexact_angles = false;
+    for (int i = 0; i < 5; ++i) {
+        ir::Circuit c = test::random_circuit(rng, ro);
+        for (ir::Qubit& q : c.qubits) q.role = ir::Role::Data;
+        for (ir::Register& r : c.registers) r.role = ir::Role::Data;
+        for (int level : {2, 3}) {
+            compiler::CompileOptions m;
+            m.target = ir::Target::CliffordT;
+            m.level = level;
+            m.allow_measurement = true;
+            const compiler::CompileResult plain = compiler::compile(c, m);
+            m.gadget_wires = 6;
+            const compiler::CompileResult gad = compiler::compile(c, m);
+            INFO("random program " << i << " at -O" << level << ", kept " << gad.kept_run);
+            REQUIRE(gad.status == compiler::CompileStatus::Ok);
+            CHECK(ir::count_resources(gad.circuit).t_count <= ir::count_resources(plain.circuit).t_count);
+        }
+    }
+}

@@ -22,10 +22,14 @@ input states on the data wires, with every clean work wire (declared or added by
 work wires back at |0> (up to a global phase per branch; a unitary output has one branch).
 
 Beside them, Toffoli- and CCZ-rich networks for reduce-t (t_network_program) are compiled for
-clifford+t at -O2 and -O3, the levels that run it.
+clifford+t at -O2 and -O3, the levels that run it; those and networks with H gates between the
+Toffolis, on their targets and on their controls (gadget_program), are also compiled there with
+`--allow-measurement --gadget-wires 6`, where reduce-t may replace inner H gates by measured
+Hadamard gadgets (the output then has measurements and conditioned corrections on fresh wires).
 
 WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number of circuits (default
-80), WHITTLE_DIFF_T_CIRCUITS the number of T networks (default half of that); a failure prints the
+80), WHITTLE_DIFF_T_CIRCUITS the number of T networks and of gadget networks (default half of that
+each); a failure prints the
 .wq input, the configuration and a command that reproduces it.
 """
 import math
@@ -289,6 +293,44 @@ def t_network_program(rng):
             prog.ops.append(("parity", eval(theta.replace("pi", "math.pi")), list(ws)))
         else:
             one_qubit_line(rng, prog, rng.choice(data), prog.ops, prog.lines)
+    return prog
+
+
+def gadget_program(rng):
+    """For reduce-t's Hadamard gadgets: Toffolis on 3-6 wires with H gates between them on their
+    targets and on their controls, negative controls, CNOTs (some on negative controls), T, S and
+    their inverses and parities around the H gates (so each gadget's correction has T terms to push
+    through), and CCZ phases."""
+    n = rng.randint(3, 6)
+    prog = Program(n, 0, False)
+    data = list(range(n))
+    for _ in range(rng.randint(5, 14)):
+        r = rng.random()
+        if r < 0.3:
+            ws = pick(rng, data, 3)
+            prog.mcx(ws[0], lits_of(rng, ws[1:], neg_rate=0.3))
+        elif r < 0.5:
+            w = rng.choice(data)
+            prog.lines.append(f"h {prog.name(w)}")
+            prog.ops.append(("u1", H, w, []))
+        elif r < 0.65:
+            a, b = pick(rng, data, 2)
+            prog.mcx(b, [(a, rng.random() < 0.8)])
+        elif r < 0.82:
+            w = rng.choice(data)
+            kind = rng.choice(["t", "~t", "s", "~s"])
+            m = {"t": T, "~t": T.conj().T, "s": S, "~s": S.conj().T}[kind]
+            prog.lines.append(f"{kind} {prog.name(w)}")
+            prog.ops.append(("u1", m, w, []))
+        elif r < 0.92:
+            ws = pick(rng, data, rng.randint(2, min(3, n)))
+            theta = rng.choice(["pi/4", "-pi/4", "3*pi/4"])
+            prog.lines.append(f"phase({theta}) " + " ^ ".join(prog.name(w) for w in ws))
+            prog.ops.append(("parity", eval(theta.replace("pi", "math.pi")), list(ws)))
+        else:
+            lit = lits_of(rng, pick(rng, data, 3), neg_rate=0.2)
+            prog.lines.append("phase(pi) " + " & ".join(prog.lit(w, p) for w, p in lit))
+            prog.ops.append(("phase", math.pi, lit))
     return prog
 
 
@@ -622,22 +664,35 @@ def main():
             f.write(prog.text())
         progs.append((path, prog) + reference_states(prog, rng_np))
         t_paths.add(path)
+    g_paths = set()  # the gadget networks: compiled only with gadget wires
+    for i in range(T_CIRCUITS):
+        prog = gadget_program(rng)
+        path = os.path.join(tmp, f"g{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
+        g_paths.add(path)
     configs = [(t, o, False) for t in TARGETS for o in LEVELS] + [("clifford+t", o, True) for o in LEVELS]
-    checked = failures = refused = 0
+    configs += [("clifford+t", o, "gadgets") for o in ("-O2", "-O3")]
+    checked = failures = refused = gadget_outputs = 0
     all_progs = progs
     for target, level, meas in configs:
         progs = [p for p in all_progs if p[1].classical] if target == "nct" else all_progs
-        if not (target == "clifford+t" and level in ("-O2", "-O3") and not meas):
-            progs = [p for p in progs if p[0] not in t_paths]
-        outdir = os.path.join(tmp, f"{target}{level}{'-m' if meas else ''}".replace("+", "_"))
+        if meas == "gadgets":
+            progs = [p for p in progs if p[0] in t_paths or p[0] in g_paths]
+        else:
+            progs = [p for p in progs if p[0] not in g_paths]
+            if not (target == "clifford+t" and level in ("-O2", "-O3") and not meas):
+                progs = [p for p in progs if p[0] not in t_paths]
+        flags = {False: "", True: " --allow-measurement", "gadgets": " --allow-measurement --gadget-wires 6"}[meas]
+        outdir = os.path.join(tmp, f"{target}{level}{'-m' if meas else ''}{'g' if meas == 'gadgets' else ''}".replace("+", "_"))
         os.mkdir(outdir)
         cmd = [WHITTLE, "compile", "-q", "-j", "2", "--target", target, level, "--emit", "qasm2", "-o", outdir]
-        if meas:
-            cmd.append("--allow-measurement")
+        cmd += flags.split()
         res = subprocess.run(cmd + [p[0] for p in progs], capture_output=True, text=True)
         for path, prog, data, ref_out in progs:
             out = os.path.join(outdir, os.path.basename(path)[:-3] + ".qasm")
-            how = f"{WHITTLE} compile {path} --target {target} {level}{' --allow-measurement' if meas else ''} --emit qasm2"
+            how = f"{WHITTLE} compile {path} --target {target} {level}{flags} --emit qasm2"
             if not os.path.exists(out):
                 err = [l for l in res.stderr.split("\n") if l.startswith(path)]
                 if target == "nct" and err and "has no NOT/CNOT/Toffoli form without a work wire" in err[0]:
@@ -648,15 +703,23 @@ def main():
                 print(f"FAIL (no output; exit {res.returncode}) {how}\n  {err[:1]}\n--- input\n{prog.text()}")
                 continue
             with open(out) as f:
-                msg = check_output(prog, f.read(), data, ref_out)
+                text = f.read()
+            msg = check_output(prog, text, data, ref_out)
+            if meas == "gadgets" and "measure" in text:
+                gadget_outputs += 1
             checked += 1
             if msg:
                 failures += 1
                 print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
     shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
     print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations, "
-          f"{T_CIRCUITS} T networks x 2 (clifford+t -O2, -O3): "
-          f"{checked} outputs checked by numpy, {failures} failures, {refused} refused with a located reason (nct)")
+          f"{T_CIRCUITS} T networks x 4 and {T_CIRCUITS} gadget networks x 2 (clifford+t -O2, -O3, with and "
+          f"without --gadget-wires 6): "
+          f"{checked} outputs checked by numpy ({gadget_outputs} with Hadamard gadgets kept), {failures} failures, "
+          f"{refused} refused with a located reason (nct)")
+    if T_CIRCUITS >= 10 and gadget_outputs == 0:
+        failures += 1
+        print("FAIL no output of the --gadget-wires runs kept a gadget: the gadget path went untested")
     print(f"{checked - failures} passed, {failures} failed")
     return 1 if failures else 0
 
