@@ -65,6 +65,12 @@ EngineResult check_path_sum(const Aligned& al, const EquivOptions& opts, const D
 EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const Deadline& dl, double seconds,
                            int max_inputs);
 
+/// The ZX engine (equiv_zx.cpp): the miter as a ZX diagram, fully simplified; "equivalent" when it
+/// reduces to bare wires, else Inconclusive (never "not equivalent"). nullopt outside its class
+/// (measurements, resets, conditions, inexact angles, controlled gates other than X, phases, RZ and
+/// swaps). Spends at most `seconds` of the budget.
+EngineResult check_zx(const Aligned& al, const EquivOptions& opts, const Deadline& dl, double seconds);
+
 /// Engine 4: state-vector simulation (full unitary, random states, measurement branches).
 EngineResult check_simulate(const Aligned& al, const EquivOptions& opts, const Deadline& dl);
 constexpr uint32_t kUnitaryWires = 12;
@@ -83,6 +89,7 @@ constexpr const char* kUnitary = "unitary";
 constexpr const char* kRandomStates = "random-states";
 constexpr const char* kBranches = "branches";
 constexpr const char* kWitness = "basis-witness";
+constexpr const char* kZx = "zx";
 }  // namespace name
 
 /// Shared helpers for engines.

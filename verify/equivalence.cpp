@@ -207,8 +207,19 @@ EquivResult check_equivalence(const ir::Circuit& a, const ir::Circuit& b, const 
         if (x.num_wires() <= kSimulateWires) return std::nullopt;
         return check_witness(x, o, d, o.time_budget_seconds, 1 << 20);
     };
+    // The ZX engine decides wide equal circuits where the path sum stalls, and never says "not
+    // equivalent": on wide circuits it goes before the path sum with a quarter of the budget, on
+    // narrow ones (where the path sum decides both ways, with a counterexample) after it.
+    auto zx_wide = [](const Aligned& x, const EquivOptions& o, const Deadline& d) -> EngineResult {
+        if (x.num_wires() <= kUnitaryWires) return std::nullopt;
+        return check_zx(x, o, d, o.time_budget_seconds / 4);
+    };
+    auto zx_narrow = [](const Aligned& x, const EquivOptions& o, const Deadline& d) -> EngineResult {
+        if (x.num_wires() > kUnitaryWires) return std::nullopt;
+        return check_zx(x, o, d, o.time_budget_seconds);
+    };
     EngineResult (*const engines[])(const Aligned&, const EquivOptions&, const Deadline&) = {
-        check_classical, check_phase, quick_witness, check_path_sum, long_witness, check_simulate};
+        check_classical, check_phase, quick_witness, zx_wide, check_path_sum, zx_narrow, long_witness, check_simulate};
     for (auto engine : engines) {
         if (dl.expired()) break;
         EngineResult r = engine(al, opts, dl);
