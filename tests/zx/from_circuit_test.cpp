@@ -10,6 +10,7 @@
 #include "support/zx_dense.h"
 #include "zx/from_circuit.h"
 #include "zx/simplify.h"
+#include "zx/to_circuit.h"
 
 using namespace whittle;
 using namespace whittle::zx;
@@ -136,4 +137,48 @@ TEST_CASE("random circuits: the diagram and its full reduction keep the circuit'
         ++checked;
     }
     CHECK(checked >= 150);
+}
+
+TEST_CASE("circuit-shaped diagrams come back as circuits with the same matrix") {
+    std::mt19937_64 rng(2003);
+    using ir::Lit;
+    using ir::Op;
+    using ir::OpKind;
+    int back = 0;
+    for (int round = 0; round < 200; ++round) {
+        ir::Circuit c;
+        c.add_register("q", 3, ir::Role::Data);
+        const int len = 1 + int(rng() % 12);
+        for (int k = 0; k < len; ++k) {
+            std::vector<uint32_t> w = {0, 1, 2};
+            std::shuffle(w.begin(), w.end(), rng);
+            const ir::Angle a = test::random_angle(rng, true);
+            switch (rng() % 7) {
+            case 0: c.ops.push_back(Op::x(w[0], {Lit::pos(w[1])})); break;
+            case 1: c.ops.push_back(Op::one(OpKind::H, w[0])); break;
+            case 2: c.ops.push_back(Op::phase(a, {Lit::pos(w[0])})); break;
+            case 3: c.ops.push_back(Op::phase(ir::Angle::pi_times(1), {Lit::pos(w[0]), Lit::pos(w[1])})); break;
+            case 4: c.ops.push_back(Op::one(OpKind::RX, w[0], a)); break;
+            case 5: c.ops.push_back(Op::x(w[0])); break;
+            default: c.ops.push_back(Op::one(OpKind::SX, w[0])); break;
+            }
+        }
+        Graph g;
+        REQUIRE(!circuit_to_graph(c, g));
+        const std::optional<ir::Circuit> out = graph_to_circuit(g, c);
+        CAPTURE(ir::print_wq(c));
+        REQUIRE(out);
+        CHECK(test::distance_up_to_phase(test::dense_unitary(*out), test::dense_unitary(c)) < 1e-9);
+        ++back;
+    }
+    CHECK(back == 200);
+}
+
+TEST_CASE("a diagram with a phase gadget is not circuit-shaped") {
+    ir::Circuit c;
+    c.add_register("q", 2, ir::Role::Data);
+    c.ops.push_back(ir::Op::parity(ir::Angle::pi_times(1, 4), {0, 1}));
+    Graph g;
+    REQUIRE(!circuit_to_graph(c, g));
+    CHECK(!graph_to_circuit(g, c));
 }
