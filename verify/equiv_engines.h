@@ -31,6 +31,12 @@ std::string format_difference(const Aligned& al, const std::vector<uint8_t>& x, 
 class Deadline {
 public:
     explicit Deadline(double seconds) : start_(std::chrono::steady_clock::now()), budget_(seconds) {}
+    /// The same budget started `seconds` later (time another engine took does not count).
+    Deadline shifted(double seconds) const {
+        Deadline d = *this;
+        d.start_ += std::chrono::duration_cast<std::chrono::steady_clock::duration>(std::chrono::duration<double>(seconds));
+        return d;
+    }
     bool expired() const { return elapsed() > budget_; }
     double elapsed() const {
         return std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();

@@ -15,6 +15,8 @@ Vertex Graph::add_vertex(VertexKind kind, ir::Angle phase, uint32_t qubit) {
     qubit_.push_back(qubit);
     alive_.push_back(1);
     adj_.emplace_back();
+    boundary_nbrs_.push_back(0);
+    plain_nbrs_.push_back(0);
     sources_.emplace_back();
     ++live_count_;
     return v;
@@ -56,6 +58,7 @@ void Graph::add_edge(Vertex u, Vertex v, EdgeKind k) {
     (void)it;
     adj_[lo].push_back(hi);
     adj_[hi].push_back(lo);
+    count(u, v, k, 1);
 }
 
 void Graph::remove_edge(Vertex u, Vertex v) {
@@ -63,6 +66,7 @@ void Graph::remove_edge(Vertex u, Vertex v) {
     WHITTLE_ASSERT(it != edges_.end() && "zx::Graph::remove_edge of a missing edge");
     const Vertex lo = std::min(u, v), hi = std::max(u, v);
     const uint32_t pos_lo = it->second.pos_lo, pos_hi = it->second.pos_hi;
+    count(u, v, it->second.kind, -1);
     edges_.erase(it);
     erase_from(lo, pos_lo);
     erase_from(hi, pos_hi);
@@ -97,10 +101,13 @@ void Graph::negate_phase(Vertex v) {
     for (uint32_t s : sources_[v]) sign_[s] = int8_t(-sign_[s]);
 }
 
-bool Graph::touches_boundary(Vertex v) const {
-    for (Vertex w : adj_[v])
-        if (kind_[w] == VertexKind::Boundary) return true;
-    return false;
+void Graph::count(Vertex u, Vertex v, EdgeKind k, int by) {
+    if (kind_[v] == VertexKind::Boundary) boundary_nbrs_[u] += uint32_t(by);
+    if (kind_[u] == VertexKind::Boundary) boundary_nbrs_[v] += uint32_t(by);
+    if (k == EdgeKind::Plain) {
+        plain_nbrs_[u] += uint32_t(by);
+        plain_nbrs_[v] += uint32_t(by);
+    }
 }
 
 }  // namespace whittle::zx

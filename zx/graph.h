@@ -55,8 +55,15 @@ public:
     /// Hadamard edge between two Z spiders by the Hopf law: two parallel Hadamard edges between Z
     /// spiders cancel, so this removes the edge when there is one and adds it otherwise.
     void toggle_hadamard(Vertex u, Vertex v);
-    /// True when a boundary is among v's neighbours.
-    bool touches_boundary(Vertex v) const;
+    /// True when a boundary is among v's neighbours (O(1): counted as edges come and go).
+    bool touches_boundary(Vertex v) const { return boundary_nbrs_[v] != 0; }
+    /// How many of v's edges are plain (O(1)).
+    uint32_t plain_degree(Vertex v) const { return plain_nbrs_[v]; }
+    /// True when v is a Z spider whose every edge is a Hadamard edge to a Z spider: interior and
+    /// graph-like around it, what local complementation and pivoting need (O(1)).
+    bool interior(Vertex v) const {
+        return kind_[v] == VertexKind::Z && boundary_nbrs_[v] == 0 && plain_nbrs_[v] == 0;
+    }
 
     /// Phase tracking (phase teleportation, Kissinger, van de Wetering 2020, arXiv:1903.10477): a
     /// spider may hold sources, numbered phases of the circuit the diagram came from. Its phase is
@@ -88,12 +95,15 @@ private:
     /// Records that `b` sits at `pos` in adj_[a].
     void set_pos(Vertex a, Vertex b, uint32_t pos);
     void erase_from(Vertex a, uint32_t pos);
+    /// Keeps boundary_nbrs_ and plain_nbrs_ for an edge u-v of kind k coming (+1) or going (-1).
+    void count(Vertex u, Vertex v, EdgeKind k, int by);
 
     std::vector<VertexKind> kind_;
     std::vector<ir::Angle> phase_;
     std::vector<uint32_t> qubit_;
     std::vector<uint8_t> alive_;
     std::vector<std::vector<Vertex>> adj_;
+    std::vector<uint32_t> boundary_nbrs_, plain_nbrs_;  ///< per vertex: boundary neighbours, plain edges
     std::vector<std::vector<uint32_t>> sources_;
     std::vector<int8_t> sign_;
     std::unordered_map<uint64_t, EdgeRec> edges_;

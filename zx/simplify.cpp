@@ -23,12 +23,7 @@ bool clifford(const Graph& g, Vertex v) { return !g.tracked(v) && g.phase(v).is_
 
 /// A Z spider whose every neighbour is a Z spider behind a Hadamard edge (interior and graph-like
 /// around it): the condition of local complementation and pivoting.
-bool interior(const Graph& g, Vertex v) {
-    if (g.is_boundary(v)) return false;
-    for (Vertex w : g.neighbors(v))
-        if (g.is_boundary(w) || g.edge_kind(v, w) != EdgeKind::Hadamard) return false;
-    return true;
-}
+bool interior(const Graph& g, Vertex v) { return g.interior(v); }
 
 bool has_leaf(const Graph& g, Vertex v) {
     for (Vertex w : g.neighbors(v))
@@ -116,7 +111,7 @@ void pivot(Graph& g, Vertex u, Vertex v, Marks& mark) {
 size_t fuse_spiders(Graph& g, SimplifyStats& st) {
     size_t n = 0;
     for (Vertex v = 0; v < g.id_bound(); ++v) {
-        if (!g.alive(v) || g.is_boundary(v)) continue;
+        if (!g.alive(v) || g.is_boundary(v) || g.plain_degree(v) == 0) continue;
         for (bool again = true; again;) {
             again = false;
             for (Vertex w : g.neighbors(v))
