@@ -2,6 +2,7 @@
 #include "zx/graph.h"
 
 #include <algorithm>
+#include <bit>
 
 #include "ir/error.h"
 
@@ -31,15 +32,71 @@ void Graph::remove_vertex(Vertex v) {
     --live_count_;
 }
 
+Graph::EdgeRec* Graph::EdgeTable::find(uint64_t key) {
+    if (size_ == 0) return nullptr;
+    for (size_t i = home(key);; i = (i + 1) & mask_) {
+        if (keys_[i] == key) return &recs_[i];
+        if (keys_[i] == 0) return nullptr;
+    }
+}
+
+void Graph::EdgeTable::grow() {
+    std::vector<uint64_t> old_keys = std::move(keys_);
+    std::vector<EdgeRec> old_recs = std::move(recs_);
+    const size_t cap = old_keys.empty() ? 64 : old_keys.size() * 2;
+    keys_.assign(cap, 0);
+    recs_.assign(cap, EdgeRec{});
+    mask_ = cap - 1;
+    shift_ = 64 - unsigned(std::countr_zero(cap));
+    for (size_t i = 0; i < old_keys.size(); ++i) {
+        if (old_keys[i] == 0) continue;
+        size_t j = home(old_keys[i]);
+        while (keys_[j] != 0) j = (j + 1) & mask_;
+        keys_[j] = old_keys[i];
+        recs_[j] = old_recs[i];
+    }
+}
+
+void Graph::EdgeTable::insert(uint64_t key, const EdgeRec& rec) {
+    if (2 * (size_ + 1) > keys_.size()) grow();
+    size_t i = home(key);
+    while (keys_[i] != 0) {
+        WHITTLE_ASSERT(keys_[i] != key && "zx::Graph: the edge exists already");
+        i = (i + 1) & mask_;
+    }
+    keys_[i] = key;
+    recs_[i] = rec;
+    ++size_;
+}
+
+void Graph::EdgeTable::erase(uint64_t key) {
+    size_t i = home(key);
+    while (keys_[i] != key) {
+        WHITTLE_ASSERT(keys_[i] != 0 && "zx::Graph: erasing a missing edge");
+        i = (i + 1) & mask_;
+    }
+    // Backward shift: move later entries of the probe run into the hole when their home allows.
+    for (size_t j = (i + 1) & mask_; keys_[j] != 0; j = (j + 1) & mask_) {
+        const size_t h = home(keys_[j]);
+        const bool movable = i <= j ? (h <= i || h > j) : (h <= i && h > j);
+        if (!movable) continue;
+        keys_[i] = keys_[j];
+        recs_[i] = recs_[j];
+        i = j;
+    }
+    keys_[i] = 0;
+    --size_;
+}
+
 EdgeKind Graph::edge_kind(Vertex u, Vertex v) const {
-    const auto it = edges_.find(key(u, v));
-    WHITTLE_ASSERT(it != edges_.end() && "zx::Graph::edge_kind of a missing edge");
-    return it->second.kind;
+    const EdgeRec* r = edges_.find(key(u, v));
+    WHITTLE_ASSERT(r && "zx::Graph::edge_kind of a missing edge");
+    return r->kind;
 }
 
 void Graph::set_pos(Vertex a, Vertex b, uint32_t pos) {
-    EdgeRec& r = edges_.find(key(a, b))->second;
-    (a < b ? r.pos_lo : r.pos_hi) = pos;
+    EdgeRec* r = edges_.find(key(a, b));
+    (a < b ? r->pos_lo : r->pos_hi) = pos;
 }
 
 void Graph::erase_from(Vertex a, uint32_t pos) {
@@ -53,30 +110,28 @@ void Graph::erase_from(Vertex a, uint32_t pos) {
 void Graph::add_edge(Vertex u, Vertex v, EdgeKind k) {
     WHITTLE_ASSERT(u != v && alive(u) && alive(v) && "zx::Graph::add_edge between live, distinct vertices");
     const Vertex lo = std::min(u, v), hi = std::max(u, v);
-    const auto [it, inserted] = edges_.emplace(key(u, v), EdgeRec{k, uint32_t(adj_[lo].size()), uint32_t(adj_[hi].size())});
-    WHITTLE_ASSERT(inserted && "zx::Graph::add_edge: the edge exists already");
-    (void)it;
+    edges_.insert(key(u, v), EdgeRec{k, uint32_t(adj_[lo].size()), uint32_t(adj_[hi].size())});
     adj_[lo].push_back(hi);
     adj_[hi].push_back(lo);
     count(u, v, k, 1);
 }
 
 void Graph::remove_edge(Vertex u, Vertex v) {
-    const auto it = edges_.find(key(u, v));
-    WHITTLE_ASSERT(it != edges_.end() && "zx::Graph::remove_edge of a missing edge");
+    const EdgeRec* it = edges_.find(key(u, v));
+    WHITTLE_ASSERT(it && "zx::Graph::remove_edge of a missing edge");
     const Vertex lo = std::min(u, v), hi = std::max(u, v);
-    const uint32_t pos_lo = it->second.pos_lo, pos_hi = it->second.pos_hi;
-    count(u, v, it->second.kind, -1);
-    edges_.erase(it);
+    const uint32_t pos_lo = it->pos_lo, pos_hi = it->pos_hi;
+    count(u, v, it->kind, -1);
+    edges_.erase(key(u, v));
     erase_from(lo, pos_lo);
     erase_from(hi, pos_hi);
 }
 
 void Graph::toggle_hadamard(Vertex u, Vertex v) {
     WHITTLE_ASSERT(kind_[u] == VertexKind::Z && kind_[v] == VertexKind::Z && "toggle_hadamard joins Z spiders");
-    const auto it = edges_.find(key(u, v));
-    if (it == edges_.end()) return add_edge(u, v, EdgeKind::Hadamard);
-    WHITTLE_ASSERT(it->second.kind == EdgeKind::Hadamard && "toggle_hadamard over a plain edge");
+    const EdgeRec* it = edges_.find(key(u, v));
+    if (!it) return add_edge(u, v, EdgeKind::Hadamard);
+    WHITTLE_ASSERT(it->kind == EdgeKind::Hadamard && "toggle_hadamard over a plain edge");
     remove_edge(u, v);
 }
 

@@ -2,7 +2,6 @@
 #pragma once
 
 #include <cstdint>
-#include <unordered_map>
 #include <vector>
 
 #include "ir/angle.h"
@@ -46,7 +45,7 @@ public:
 
     const std::vector<Vertex>& neighbors(Vertex v) const { return adj_[v]; }
     size_t degree(Vertex v) const { return adj_[v].size(); }
-    bool connected(Vertex u, Vertex v) const { return edges_.count(key(u, v)) != 0; }
+    bool connected(Vertex u, Vertex v) const { return edges_.find(key(u, v)) != nullptr; }
     /// The kind of the edge u-v; the edge must exist.
     EdgeKind edge_kind(Vertex u, Vertex v) const;
     /// Adds an edge; u != v and no edge u-v may exist.
@@ -89,6 +88,27 @@ private:
         EdgeKind kind;
         uint32_t pos_lo, pos_hi;  ///< index of hi in adj_[lo], of lo in adj_[hi]
     };
+    /// Edges by key (lo << 32 | hi, never 0 since lo < hi): open addressing with linear probing and
+    /// backward-shift deletion, at most half full. The rules spend most of their time finding and
+    /// toggling edges, which a node-based map makes a cache miss and an allocation each.
+    class EdgeTable {
+    public:
+        size_t size() const { return size_; }
+        EdgeRec* find(uint64_t key);
+        const EdgeRec* find(uint64_t key) const { return const_cast<EdgeTable*>(this)->find(key); }
+        /// Inserts; the key must be absent.
+        void insert(uint64_t key, const EdgeRec& rec);
+        /// Removes; the key must be present.
+        void erase(uint64_t key);
+
+    private:
+        size_t home(uint64_t key) const { return size_t((key * 0x9E3779B97F4A7C15ull) >> shift_); }
+        void grow();
+        std::vector<uint64_t> keys_;
+        std::vector<EdgeRec> recs_;
+        size_t size_ = 0, mask_ = 0;
+        unsigned shift_ = 64;
+    };
     static uint64_t key(Vertex u, Vertex v) {
         return u < v ? (uint64_t(u) << 32) | v : (uint64_t(v) << 32) | u;
     }
@@ -106,7 +126,7 @@ private:
     std::vector<uint32_t> boundary_nbrs_, plain_nbrs_;  ///< per vertex: boundary neighbours, plain edges
     std::vector<std::vector<uint32_t>> sources_;
     std::vector<int8_t> sign_;
-    std::unordered_map<uint64_t, EdgeRec> edges_;
+    EdgeTable edges_;
     size_t live_count_ = 0;
 };
 
