@@ -90,6 +90,10 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         // gate pairs where a rebuilt region meets its neighbours (-O2 rebuilds only regions whose
         // T-count falls, and saves the time).
         if (level >= 2 && *opts.target == ir::Target::CliffordT) add({"reduce-t"});
+        // zx-merge after it: phase teleportation finds the merges that a ZX diagram's graph-like
+        // simplification exposes across H gates and CZ structure; it only removes or changes
+        // phases, so reduce-t's regions and CNOTs stay as they are.
+        if (level >= 2 && *opts.target == ir::Target::CliffordT) add({"zx-merge"});
         if (level >= 3 && *opts.target == ir::Target::CliffordT) add({"gate-cancel"});
     }
     add({"to-target", "fuse-1q"});

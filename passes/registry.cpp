@@ -20,6 +20,7 @@
 #include "passes/pair_uncompute.h"
 #include "passes/plan_ancillas.h"
 #include "passes/reduce_t.h"
+#include "passes/zx_merge.h"
 #include "passes/resynth_2q.h"
 #include "passes/to_target.h"
 
@@ -53,6 +54,8 @@ const std::vector<PassInfo>& all_passes() {
          Stage::LowLevel, fold_rotations},
         {"reduce-t", "T-count reduction beyond folding: TODD on Hadamard-free regions, parity-network resynthesis",
          Stage::LowLevel, reduce_t},
+        {"zx-merge", "phase merges found by ZX simplification written back into the circuit, CNOTs unchanged",
+         Stage::LowLevel, zx_merge},
         {"fuse-1q", "fuse one-qubit runs and resynthesize them by Euler angles in the target's axes",
          Stage::LowLevel, fuse_1q},
         {"resynth-2q", "resynthesize two-qubit blocks by KAK with the fewest entangling gates", Stage::LowLevel,

@@ -31,6 +31,12 @@ std::string format_difference(const Aligned& al, const std::vector<uint8_t>& x, 
 class Deadline {
 public:
     explicit Deadline(double seconds) : start_(std::chrono::steady_clock::now()), budget_(seconds) {}
+    /// The same budget started `seconds` later (time another engine took does not count).
+    Deadline shifted(double seconds) const {
+        Deadline d = *this;
+        d.start_ += std::chrono::duration_cast<std::chrono::steady_clock::duration>(std::chrono::duration<double>(seconds));
+        return d;
+    }
     bool expired() const { return elapsed() > budget_; }
     double elapsed() const {
         return std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
@@ -65,6 +71,12 @@ EngineResult check_path_sum(const Aligned& al, const EquivOptions& opts, const D
 EngineResult check_witness(const Aligned& al, const EquivOptions& opts, const Deadline& dl, double seconds,
                            int max_inputs);
 
+/// The ZX engine (equiv_zx.cpp): the miter as a ZX diagram, fully simplified; "equivalent" when it
+/// reduces to bare wires, else Inconclusive (never "not equivalent"). nullopt outside its class
+/// (measurements, resets, conditions, inexact angles, controlled gates other than X, phases, RZ and
+/// swaps). Spends at most `seconds` of the budget.
+EngineResult check_zx(const Aligned& al, const EquivOptions& opts, const Deadline& dl, double seconds);
+
 /// Engine 4: state-vector simulation (full unitary, random states, measurement branches).
 EngineResult check_simulate(const Aligned& al, const EquivOptions& opts, const Deadline& dl);
 constexpr uint32_t kUnitaryWires = 12;
@@ -83,6 +95,7 @@ constexpr const char* kUnitary = "unitary";
 constexpr const char* kRandomStates = "random-states";
 constexpr const char* kBranches = "branches";
 constexpr const char* kWitness = "basis-witness";
+constexpr const char* kZx = "zx";
 }  // namespace name
 
 /// Shared helpers for engines.

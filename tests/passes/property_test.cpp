@@ -146,12 +146,15 @@ using Engine = passes::equiv::EngineResult (*)(const passes::equiv::Aligned&, co
 }  // namespace
 
 TEST_CASE("every engine agrees with an independent dense reference on random circuits") {
+    const Engine zx = [](const passes::equiv::Aligned& al, const passes::EquivOptions& o,
+                         const passes::equiv::Deadline& d) { return passes::equiv::check_zx(al, o, d, 10); };
     const std::pair<const char*, Engine> engines[] = {{"classical", passes::equiv::check_classical},
                                                       {"phase", passes::equiv::check_phase},
                                                       {"path-sum", passes::equiv::check_path_sum},
-                                                      {"simulate", passes::equiv::check_simulate}};
+                                                      {"simulate", passes::equiv::check_simulate},
+                                                      {"zx", zx}};
     std::mt19937_64 rng(2026);
-    int decided[4] = {0, 0, 0, 0}, equal_pairs = 0, unequal_pairs = 0;
+    int decided[5] = {0, 0, 0, 0, 0}, equal_pairs = 0, unequal_pairs = 0;
     for (int round = 0; round < kRounds; ++round) {
         const OpClass cls = OpClass(round % 4);
         const ir::Circuit a = random_in_class(rng, cls), b = mutate(a, rng, cls);
@@ -159,7 +162,7 @@ TEST_CASE("every engine agrees with an independent dense reference on random cir
         (truth ? equal_pairs : unequal_pairs) += 1;
         const passes::equiv::Aligned al = passes::equiv::align(a, b);
         passes::EquivOptions opts;
-        for (int e = 0; e < 4; ++e) {
+        for (int e = 0; e < 5; ++e) {
             const passes::equiv::EngineResult r = engines[e].second(al, opts, passes::equiv::Deadline(10));
             if (!r || r->verdict == Verdict::Inconclusive) continue;
             ++decided[e];
@@ -170,8 +173,9 @@ TEST_CASE("every engine agrees with an independent dense reference on random cir
         const passes::EquivResult r = passes::check_equivalence(a, b);
         if (r.verdict != Verdict::Inconclusive) CHECK((r.verdict == Verdict::Equivalent) == truth);
     }
-    MESSAGE(fmt::format("{} pairs ({} equivalent, {} not); decided by classical {}, phase {}, path-sum {}, simulate {}",
-                        kRounds, equal_pairs, unequal_pairs, decided[0], decided[1], decided[2], decided[3]));
+    MESSAGE(fmt::format("{} pairs ({} equivalent, {} not); decided by classical {}, phase {}, path-sum {}, simulate {}, "
+                        "zx {}",
+                        kRounds, equal_pairs, unequal_pairs, decided[0], decided[1], decided[2], decided[3], decided[4]));
     for (int d : decided) CHECK(d >= kRounds / 8);  // each engine really ran on its class
     CHECK(equal_pairs >= kRounds / 8);
     CHECK(unequal_pairs >= kRounds / 8);

@@ -21,15 +21,16 @@ input states on the data wires, with every clean work wire (declared or added by
 |0>, every measurement branch of the output is proportional to the reference's output state with the
 work wires back at |0> (up to a global phase per branch; a unitary output has one branch).
 
-Beside them, Toffoli- and CCZ-rich networks for reduce-t (t_network_program) are compiled for
-clifford+t at -O2 and -O3, the levels that run it; those and networks with H gates between the
-Toffolis, on their targets and on their controls (gadget_program), are also compiled there with
+Beside them, Toffoli- and CCZ-rich networks for reduce-t (t_network_program) and phase networks
+with H pairs, CZs and signed phases for zx-merge (teleport_program) are compiled for clifford+t at
+-O2 and -O3, the levels that run them; those and networks with H gates between the Toffolis, on
+their targets and on their controls (gadget_program), are also compiled there with
 `--allow-measurement --gadget-wires 6`, where reduce-t may replace inner H gates by measured
 Hadamard gadgets (the output then has measurements and conditioned corrections on fresh wires).
 
 WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number of circuits (default
-80), WHITTLE_DIFF_T_CIRCUITS the number of T networks and of gadget networks (default half of that
-each); a failure prints the
+80), WHITTLE_DIFF_T_CIRCUITS the number of T networks and of gadget networks and
+WHITTLE_DIFF_ZX_CIRCUITS that of phase networks (default half of that each); a failure prints the
 .wq input, the configuration and a command that reproduces it.
 """
 import math
@@ -47,6 +48,7 @@ WHITTLE = os.environ.get("WHITTLE_BIN", "whittle")
 SEED = int(os.environ.get("WHITTLE_DIFF_SEED", "1"))
 CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "80"))
 T_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_T_CIRCUITS", str(max(1, CIRCUITS // 2))))
+ZX_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_ZX_CIRCUITS", str(max(1, CIRCUITS // 2))))
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
 STATES = 3  # random input states per check
@@ -331,6 +333,65 @@ def gadget_program(rng):
             lit = lits_of(rng, pick(rng, data, 3), neg_rate=0.2)
             prog.lines.append("phase(pi) " + " & ".join(prog.lit(w, p) for w, p in lit))
             prog.ops.append(("phase", math.pi, lit))
+def teleport_program(rng):
+    """For zx-merge (phase teleportation, zx/): one-wire T, T-dagger and S phases (on negative
+    literals too, and right after X gates, so merged phases carry signs) on parities that CNOT
+    stretches compute and later undo, with H pairs, H-CZ-H and CZ between them (what the ZX
+    diagram's identity removal, local complementation and pivots see through), occasional Toffolis
+    and lone H gates that make the merge depend on path variables, and a clean work wire that a
+    parity is computed into and uncomputed from."""
+    n = rng.randint(3, 6)
+    prog = Program(n, rng.choice([0, 1]), False)
+    data = list(range(n))
+    wires = list(range(n + prog.n_clean))
+    angles = [("t", T), ("~t", T.conj().T), ("s", S)]
+    def phase_on(w, neg=False):
+        name, m = rng.choice(angles)
+        if neg:  # a phase on the negative literal: e^{i a (1 - w)}
+            a = {"t": "pi/4", "~t": "-pi/4", "s": "pi/2"}[name]
+            prog.lines.append(f"phase({a}) !{prog.name(w)}")
+            prog.ops.append(("phase", eval(a.replace("pi", "math.pi")), [(w, False)]))
+            return
+        prog.lines.append(f"{name} {prog.name(w)}")
+        prog.ops.append(("u1", m, w, []))
+    for _ in range(rng.randint(6, 18)):
+        r = rng.random()
+        if r < 0.3:  # a parity computed into one wire, a phase on it, undone (sometimes later)
+            t = rng.choice(wires)
+            srcs = pick(rng, [w for w in data if w != t], rng.randint(1, min(3, n - 1)))
+            for c in srcs:
+                prog.mcx(t, [(c, True)])
+            phase_on(t, rng.random() < 0.2)
+            if t >= n or rng.random() < 0.7:  # a clean work wire is always given back
+                for c in reversed(srcs):
+                    prog.mcx(t, [(c, True)])
+        elif r < 0.45:
+            phase_on(rng.choice(data), rng.random() < 0.3)
+        elif r < 0.55:  # H H: the identity, but a wall for folding without path variables
+            w = rng.choice(data)
+            for _ in range(2):
+                prog.lines.append(f"h {prog.name(w)}")
+                prog.ops.append(("u1", H, w, []))
+        elif r < 0.65:  # a CZ, or a CNOT written as H CZ H
+            a, b = pick(rng, data, 2)
+            hz = rng.random() < 0.5
+            if hz:
+                prog.lines.append(f"h {prog.name(b)}")
+                prog.ops.append(("u1", H, b, []))
+            prog.lines.append(f"phase(pi) {prog.name(a)} & {prog.name(b)}")
+            prog.ops.append(("phase", math.pi, [(a, True), (b, True)]))
+            if hz:
+                prog.lines.append(f"h {prog.name(b)}")
+                prog.ops.append(("u1", H, b, []))
+        elif r < 0.75:
+            prog.mcx(rng.choice(data), [])
+        elif r < 0.85:
+            t = rng.choice(data)
+            prog.mcx(t, lits_of(rng, pick(rng, [w for w in data if w != t], 2), neg_rate=0.1))
+        else:
+            w = rng.choice(data)
+            prog.lines.append(f"h {prog.name(w)}")
+            prog.ops.append(("u1", H, w, []))
     return prog
 
 
@@ -664,6 +725,13 @@ def main():
             f.write(prog.text())
         progs.append((path, prog) + reference_states(prog, rng_np))
         t_paths.add(path)
+    for i in range(ZX_CIRCUITS):  # zx-merge runs in the same configurations as reduce-t
+        prog = teleport_program(rng)
+        path = os.path.join(tmp, f"z{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
+        t_paths.add(path)
     g_paths = set()  # the gadget networks: compiled only with gadget wires
     for i in range(T_CIRCUITS):
         prog = gadget_program(rng)
@@ -713,8 +781,8 @@ def main():
                 print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
     shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
     print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations, "
-          f"{T_CIRCUITS} T networks x 4 and {T_CIRCUITS} gadget networks x 2 (clifford+t -O2, -O3, with and "
-          f"without --gadget-wires 6): "
+          f"{T_CIRCUITS} T networks x 4, {ZX_CIRCUITS} phase networks x 4 and {T_CIRCUITS} gadget networks x 2 "
+          f"(clifford+t -O2, -O3, with and without --gadget-wires 6): "
           f"{checked} outputs checked by numpy ({gadget_outputs} with Hadamard gadgets kept), {failures} failures, "
           f"{refused} refused with a located reason (nct)")
     if T_CIRCUITS >= 10 and gadget_outputs == 0:
