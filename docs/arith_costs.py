@@ -47,6 +47,7 @@ def count(path):
 
 
 def t_count(path, tmp, measure):
+    """(T, qubits, peak live qubits) of the clifford+t output, or None when not lowered."""
     out = pathlib.Path(tmp) / "lowered.wq"
     opts = ["compile", str(path), "--target", "clifford+t", "-O2", "-o", str(out)]
     if measure:
@@ -57,7 +58,7 @@ def t_count(path, tmp, measure):
     j = count(out)
     if j["toffoli_count"] or j["mcx_count"] or any(g.startswith("mc") or g == "ccz" for g in j["gates"]):
         return None  # the target is not lowered yet in this build
-    return j["t_count"]
+    return j["t_count"], j["qubits"], j.get("peak_live_qubits", j["qubits"])
 
 
 def main():
@@ -75,11 +76,13 @@ def main():
                                   if g not in ("ccx", "cx", "x", "mcx"))
                 rows.append((name, n, j["toffoli_count"], j["mcx_count"], j["cnot_count"],
                              j["qubits_by_role"]["ancilla"], other or "-", t, tm))
-    print("| routine | n | Toffoli | MCX (3+ controls) | CNOT | other gates | work wires | T (-O2, clifford+t) | T (with measurement) |")
-    print("|---|---|---|---|---|---|---|---|---|")
+    print("| routine | n | Toffoli | MCX (3+ controls) | CNOT | other gates | work wires | T (-O2, clifford+t) | "
+          "qubits / peak live (-O2) | T (with measurement) |")
+    print("|---|---|---|---|---|---|---|---|---|---|")
     for name, n, tof, mcx, cnot, work, other, t, tm in rows:
-        show = lambda v: "n/m" if v is None else str(v)
-        print(f"| {name} | {n} | {tof} | {mcx} | {cnot} | {other} | {work} | {show(t)} | {show(tm)} |")
+        show = lambda v: "n/m" if v is None else str(v[0])
+        width = "n/m" if t is None else f"{t[1]} / {t[2]}"
+        print(f"| {name} | {n} | {tof} | {mcx} | {cnot} | {other} | {work} | {show(t)} | {width} | {show(tm)} |")
 
 
 if __name__ == "__main__":
