@@ -333,6 +333,9 @@ def gadget_program(rng):
             lit = lits_of(rng, pick(rng, data, 3), neg_rate=0.2)
             prog.lines.append("phase(pi) " + " & ".join(prog.lit(w, p) for w, p in lit))
             prog.ops.append(("phase", math.pi, lit))
+    return prog
+
+
 def teleport_program(rng):
     """For zx-merge (phase teleportation, zx/): one-wire T, T-dagger and S phases (on negative
     literals too, and right after X gates, so merged phases carry signs) on parities that CNOT
