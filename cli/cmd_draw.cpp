@@ -59,7 +59,7 @@ void add_draw_command(CLI::App& app, int& exit_code) {
                 zx::circuit_to_graph(first, g);
                 const size_t before = g.num_vertices() - 2 * first.num_qubits();
                 zx::SimplifyStats st;
-                const bool done = zx::full_reduce(
+                const bool done = zx::reduce_to_fixpoint(
                     g, st, std::chrono::steady_clock::now() + std::chrono::seconds(kZxSeconds));
                 write_output(args->output,
                              fmt::format("ZX diagram of {} after graph-like simplification ({} spiders before, {} "

@@ -63,7 +63,7 @@ PassResult zx_merge(ir::Circuit& c, const PassOptions&) {
     const auto deadline = std::chrono::steady_clock::now() +
                           std::chrono::duration_cast<std::chrono::steady_clock::duration>(std::chrono::duration<double>(seconds));
     zx::SimplifyStats st;
-    const bool finished = zx::full_reduce(g, st, deadline);
+    const bool finished = zx::reduce_to_fixpoint(g, st, deadline);
 
     // Each spider holding two or more sources is a group: the diagram depends on their values only
     // through sum(sign * angle). Source s acts as e^{i a_s f} for sign +1 and e^{i a_s (1 xor f)}

@@ -54,7 +54,7 @@ EngineResult check_zx(const Aligned& al, const EquivOptions& opts, const Deadlin
     const auto deadline = std::chrono::steady_clock::now() + std::chrono::duration_cast<std::chrono::steady_clock::duration>(
                                                                   std::chrono::duration<double>(left));
     zx::SimplifyStats st;
-    if (!zx::full_reduce(g, st, deadline))
+    if (!zx::reduce_to_fixpoint(g, st, deadline))
         return inconclusive(name::kZx, fmt::format("time budget exhausted with {} of {} vertices left",
                                                    g.num_vertices(), built));
     for (uint32_t w = 0; w < n; ++w) {

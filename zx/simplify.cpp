@@ -313,7 +313,7 @@ size_t fuse_gadgets(Graph& g, SimplifyStats& st) {
     return n;
 }
 
-bool interior_clifford_simp(Graph& g, SimplifyStats& st, std::chrono::steady_clock::time_point deadline) {
+bool reduce_clifford_interior(Graph& g, SimplifyStats& st, std::chrono::steady_clock::time_point deadline) {
     for (;;) {
         if (std::chrono::steady_clock::now() > deadline) return false;
         size_t n = fuse_spiders(g, st);
@@ -324,15 +324,15 @@ bool interior_clifford_simp(Graph& g, SimplifyStats& st, std::chrono::steady_clo
     }
 }
 
-bool full_reduce(Graph& g, SimplifyStats& st, std::chrono::steady_clock::time_point deadline) {
-    if (!interior_clifford_simp(g, st, deadline)) return false;
+bool reduce_to_fixpoint(Graph& g, SimplifyStats& st, std::chrono::steady_clock::time_point deadline) {
+    if (!reduce_clifford_interior(g, st, deadline)) return false;
     pivot_gadget(g, st);
     for (;;) {
         do {
-            if (!interior_clifford_simp(g, st, deadline)) return false;
+            if (!reduce_clifford_interior(g, st, deadline)) return false;
         } while (pivot_boundary(g, st) != 0);
         const size_t fused = fuse_gadgets(g, st);
-        if (!interior_clifford_simp(g, st, deadline)) return false;
+        if (!reduce_clifford_interior(g, st, deadline)) return false;
         const size_t formed = pivot_gadget(g, st);
         if (fused + formed == 0) return true;
         if (std::chrono::steady_clock::now() > deadline) return false;

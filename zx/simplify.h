@@ -47,11 +47,11 @@ size_t fuse_gadgets(Graph& g, SimplifyStats& st);
 
 /// Fusion, identity removal, local complementation and interior pivots until none applies.
 /// Returns false when `deadline` passed.
-bool interior_clifford_simp(Graph& g, SimplifyStats& st, std::chrono::steady_clock::time_point deadline);
+bool reduce_clifford_interior(Graph& g, SimplifyStats& st, std::chrono::steady_clock::time_point deadline);
 /// The whole procedure: interior Clifford rules, boundary pivots, gadget fusion and gadget pivots,
 /// in rounds until a round changes nothing. Returns false when `deadline` passed (the diagram is
 /// then partly simplified, still equal to the input up to a scalar).
-bool full_reduce(Graph& g, SimplifyStats& st,
+bool reduce_to_fixpoint(Graph& g, SimplifyStats& st,
                  std::chrono::steady_clock::time_point deadline = std::chrono::steady_clock::time_point::max());
 
 }  // namespace whittle::zx

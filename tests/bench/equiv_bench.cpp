@@ -98,7 +98,7 @@ int main(int argc, char** argv) {
         zx::circuit_to_graph(ct, g);
         const size_t built = g.num_vertices();
         zx::SimplifyStats st;
-        const bool done = zx::full_reduce(g, st, std::chrono::steady_clock::now() + std::chrono::seconds(120));
+        const bool done = zx::reduce_to_fixpoint(g, st, std::chrono::steady_clock::now() + std::chrono::seconds(120));
         char what[64];
         std::snprintf(what, sizeof what, "%ux adder 49 bits%s", copies, done ? "" : " (stopped)");
         std::printf("%-34s %-8zu %-10zu %-10zu %-10zu %.3f\n", what, ct.ops.size(), built, g.num_vertices(), st.total(),
