@@ -186,7 +186,8 @@ AncillaContract check_ancilla_contract(const ir::Circuit& c, double seconds) {
             too_big = false;
             if (auto r = exact_run(c, clean, in, &too_big)) return *r;
         }
-        undecided.method = fmt::format("{} random basis inputs return every clean wire to |0>", runs);
+        undecided.method = runs > 0 ? fmt::format("{} random basis inputs return every clean wire to |0>", runs)
+                                    : std::string("no time was left to run a basis input");
     }
     if (n <= kDenseWires && free.size() <= kDenseWires) {
         bool complete = true;

@@ -87,24 +87,7 @@ ir::Circuit mutate(const ir::Circuit& a, std::mt19937_64& rng, OpClass cls) {
     return b;
 }
 
-/// The truth from the independent dense reference: columns of the inputs with every clean wire at
-/// |0> must agree up to one global phase.
-bool dense_equivalent(const ir::Circuit& a, const ir::Circuit& b) {
-    const Eigen::MatrixXcd ua = test::dense_unitary(a), ub = test::dense_unitary(b);
-    std::vector<Eigen::Index> cols;
-    for (Eigen::Index j = 0; j < ua.cols(); ++j) {
-        bool clean_zero = true;
-        for (uint32_t w = 0; w < a.num_qubits(); ++w)
-            if (a.qubits[w].role == ir::Role::Clean && ((j >> w) & 1)) clean_zero = false;
-        if (clean_zero) cols.push_back(j);
-    }
-    Eigen::MatrixXcd ra(ua.rows(), Eigen::Index(cols.size())), rb(ub.rows(), Eigen::Index(cols.size()));
-    for (size_t k = 0; k < cols.size(); ++k) {
-        ra.col(Eigen::Index(k)) = ua.col(cols[k]);
-        rb.col(Eigen::Index(k)) = ub.col(cols[k]);
-    }
-    return test::distance_up_to_phase(ra, rb) < 1e-9;
-}
+using test::dense_equivalent;
 
 /// A random circuit that keeps its wires' promises: `ancilla` wires come back to |0> and `borrow`
 /// wires to their input, so a pass may rely on them. Shape: P M P^-1 with P random multi-controlled X

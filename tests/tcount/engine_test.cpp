@@ -10,6 +10,7 @@
 #include "passes/pipeline.h"
 #include "support/dense_unitary.h"
 #include "support/families.h"
+#include "support/tcount_helpers.h"
 #include "support/random_circuit.h"
 #include "tcount/engine.h"
 #include "tcount/hadamard_frames.h"
@@ -26,9 +27,14 @@ using ir::OpKind;
 
 namespace {
 
-Op h(uint32_t w) { return Op::one(OpKind::H, w); }
-Op cx(uint32_t c, uint32_t t) { return Op::x(t, {Lit::pos(c)}); }
-Op ph(uint32_t w, int eighths) { return Op::phase(Angle::pi_times(eighths, 4), {Lit::pos(w)}); }
+using test::cx;
+using test::h;
+using test::ph;
+using test::same_matrix;
+using test::t_of;
+
+ir::Circuit lowered(const ir::Circuit& in, int level = 3) { return test::lowered_before_reduce_t(in, level); }
+
 
 bool exactly_equivalent(const ir::Circuit& a, const ir::Circuit& b) {
     passes::EquivOptions o;
@@ -36,12 +42,7 @@ bool exactly_equivalent(const ir::Circuit& a, const ir::Circuit& b) {
     return passes::check_equivalence(a, b, o).verdict == passes::Verdict::Equivalent;
 }
 
-/// The exact matrix, global phase included (tests/support/dense_unitary.h, independent of the compiler).
-bool same_matrix(const ir::Circuit& a, const ir::Circuit& b) {
-    return test::distance_exact(test::dense_unitary(a), test::dense_unitary(b)) < 1e-9;
-}
 
-uint64_t t_of(const ir::Circuit& c) { return ir::count_resources(c).t_count; }
 
 ir::Circuit reduced(ir::Circuit c, tcount::EngineStats* stats = nullptr) {
     tcount::EngineStats st;
@@ -49,20 +50,6 @@ ir::Circuit reduced(ir::Circuit c, tcount::EngineStats* stats = nullptr) {
     return c;
 }
 
-/// A family member lowered by the clifford+t pipeline up to the engine's place (before reduce-t).
-ir::Circuit lowered(const ir::Circuit& in, int level = 3) {
-    passes::PassOptions o;
-    o.level = level;
-    o.target = ir::parse_optional_target("clifford+t");
-    ir::Circuit c = in;
-    std::vector<std::string> names;
-    for (const std::string& n : passes::pipeline_for(o)) {
-        if (n == "reduce-t") break;
-        names.push_back(n);
-    }
-    passes::run_passes(c, names, o);
-    return c;
-}
 
 /// A phase on every non-zero parity of `n` wires (eighths from `coef(parity)`), each made by CNOTs
 /// into its highest wire and undone.

@@ -7,6 +7,7 @@
 #include "passes/pipeline.h"
 #include "support/dense_unitary.h"
 #include "support/families.h"
+#include "support/tcount_helpers.h"
 #include "passes/pass_check.h"
 #include "tcount/hadamard_frames.h"
 #include "verify/equivalence.h"
@@ -18,8 +19,12 @@ using ir::OpKind;
 
 namespace {
 
-Op h(uint32_t w) { return Op::one(OpKind::H, w); }
-Op cx(uint32_t c, uint32_t t) { return Op::x(t, {Lit::pos(c)}); }
+using test::cx;
+using test::h;
+using test::same_matrix;
+
+ir::Circuit lowered(const ir::Circuit& in) { return test::lowered_before_reduce_t(in, 2); }
+
 Op t(uint32_t w) { return Op::phase(ir::Angle::pi_times(1, 4), {Lit::pos(w)}); }
 
 size_t count_h(const ir::Circuit& c) {
@@ -28,24 +33,7 @@ size_t count_h(const ir::Circuit& c) {
     return n;
 }
 
-/// The exact matrix, global phase included (tests/support/dense_unitary.h, independent of the compiler).
-bool same_matrix(const ir::Circuit& a, const ir::Circuit& b) {
-    return test::distance_exact(test::dense_unitary(a), test::dense_unitary(b)) < 1e-9;
-}
 
-ir::Circuit lowered(const ir::Circuit& in) {
-    passes::PassOptions o;
-    o.level = 2;
-    o.target = ir::parse_optional_target("clifford+t");
-    ir::Circuit c = in;
-    std::vector<std::string> names;
-    for (const std::string& n : passes::pipeline_for(o)) {
-        if (n == "reduce-t") break;
-        names.push_back(n);
-    }
-    passes::run_passes(c, names, o);
-    return c;
-}
 
 }  // namespace
 

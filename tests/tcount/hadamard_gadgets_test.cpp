@@ -8,6 +8,7 @@
 #include "passes/pass_check.h"
 #include "passes/pipeline.h"
 #include "support/families.h"
+#include "support/tcount_helpers.h"
 #include "tcount/engine.h"
 #include "tcount/hadamard_frames.h"
 #include "tcount/hadamard_gadgets.h"
@@ -21,11 +22,14 @@ using ir::OpKind;
 
 namespace {
 
-Op h(uint32_t w) { return Op::one(OpKind::H, w); }
-Op cx(uint32_t c, uint32_t t) { return Op::x(t, {Lit::pos(c)}); }
-Op ph(uint32_t w, int eighths) { return Op::phase(Angle::pi_times(eighths, 4), {Lit::pos(w)}); }
+using test::cx;
+using test::h;
+using test::ph;
+using test::t_of;
 
-uint64_t t_of(const ir::Circuit& c) { return ir::count_resources(c).t_count; }
+ir::Circuit lowered(const ir::Circuit& in) { return test::lowered_before_reduce_t(in, 3); }
+
+
 
 size_t count_kind(const ir::Circuit& c, OpKind k) {
     size_t n = 0;
@@ -50,20 +54,6 @@ ir::Circuit gadgetized(ir::Circuit c, uint32_t wires, tcount::GadgetStats* stats
     return c;
 }
 
-/// A family member lowered by the clifford+t pipeline up to reduce-t's place.
-ir::Circuit lowered(const ir::Circuit& in) {
-    passes::PassOptions o;
-    o.level = 3;
-    o.target = ir::parse_optional_target("clifford+t");
-    ir::Circuit c = in;
-    std::vector<std::string> names;
-    for (const std::string& n : passes::pipeline_for(o)) {
-        if (n == "reduce-t") break;
-        names.push_back(n);
-    }
-    passes::run_passes(c, names, o);
-    return c;
-}
 
 /// T(a); CX(a, b); H(b); CX(b, a); T(a); CX(b, a); T(a) on a = wire 0, b = wire 1: the first and the
 /// last T act on the same parity x_a, but an H on b lies between them (written for this test).

@@ -47,23 +47,7 @@ bool zx_says_equivalent(const Circuit& a, const Circuit& b) {
     return r && r->verdict == Verdict::Equivalent;
 }
 
-/// The truth from the dense reference: every column with the clean wires at |0> agrees up to one phase.
-bool dense_equivalent(const Circuit& a, const Circuit& b) {
-    const Eigen::MatrixXcd ua = test::dense_unitary(a), ub = test::dense_unitary(b);
-    std::vector<Eigen::Index> cols;
-    for (Eigen::Index j = 0; j < ua.cols(); ++j) {
-        bool clean_zero = true;
-        for (uint32_t w = 0; w < a.num_qubits(); ++w)
-            if (a.qubits[w].role == ir::Role::Clean && ((j >> w) & 1)) clean_zero = false;
-        if (clean_zero) cols.push_back(j);
-    }
-    Eigen::MatrixXcd ra(ua.rows(), Eigen::Index(cols.size())), rb(ub.rows(), Eigen::Index(cols.size()));
-    for (size_t k = 0; k < cols.size(); ++k) {
-        ra.col(Eigen::Index(k)) = ua.col(cols[k]);
-        rb.col(Eigen::Index(k)) = ub.col(cols[k]);
-    }
-    return test::distance_up_to_phase(ra, rb) < 1e-9;
-}
+using test::dense_equivalent;
 
 }  // namespace
 
