@@ -1,6 +1,7 @@
 // `whittle compile`: the arguments, the output files and the summary line around compiler::compile; -j runs a batch.
 #include <algorithm>
 #include <atomic>
+#include <chrono>
 #include <filesystem>
 #include <iostream>
 #include <map>
@@ -52,13 +53,36 @@ struct CompileArgs {
     std::vector<std::string> roles;  // --role NAME=ROLE, as written
 };
 
-/// One compile: an input and where its output goes ("" = stdout), and the tag that keeps its
-/// --verify failure files apart from the other inputs' in a batch.
+/// One compile: an input, where its output and its report go ("" = stdout / no report), and the tag
+/// that keeps its --verify failure files apart from the other inputs' in a batch.
 struct Job {
     std::string input;
     std::string output;
     std::string verify_tag;
+    std::string report;
 };
+
+/// What a batch's closing table shows of one job; `done` is false when it failed.
+struct JobRow {
+    bool done = false;
+    uint64_t qubits = 0, cost = 0, two_qubit = 0, depth = 0;
+    double seconds = 0;
+    std::string check;
+};
+
+/// The check's verdict in a few words: "verified exact (path-sum) in 0.02 s (...)" -> "verified
+/// exact", with " (ancillas unproven)" when the clean wires were not proven returned.
+std::string short_verdict(const std::string& summary) {
+    size_t cut = summary.size();
+    for (const char* stop : {" (", " in ", ":", ";"}) cut = std::min(cut, summary.find(stop));
+    std::string v = summary.substr(0, cut);
+    if (summary.find("ancillas not proven") != std::string::npos) v += " (ancillas unproven)";
+    return v;
+}
+
+/// On a rotation target every non-Clifford rotation is one native rotation, so that is the cost
+/// figure shown; T on clifford+t (and nct, which has none) and with no target.
+bool rotation_target(const CompileArgs& a) { return !a.target.empty() && a.target != "clifford+t" && a.target != "nct"; }
 
 std::string emit_format(const CompileArgs& a, const std::string& output) {
     if (!a.emit.empty()) return a.emit;
@@ -149,7 +173,8 @@ void check_options(const CompileArgs& a) {
     if (!a.report.empty()) {
         const bool report_stdout = a.report == "-";
         if ((report_stdout && to_stdout) ||
-            (!report_stdout && !to_stdout && fs::weakly_canonical(a.report, ec) == fs::weakly_canonical(a.output, ec)))
+            (!report_stdout && !to_stdout && !fs::is_directory(a.report, ec) &&
+             fs::weakly_canonical(a.report, ec) == fs::weakly_canonical(a.output, ec)))
             throw UserError(fmt::format("--report '{}' and the output are the same file; give the report a name of its own",
                                         report_stdout ? std::string("-") : a.report));
     }
@@ -189,14 +214,16 @@ std::string cost_table(const compiler::CompileResult& r, const frontend::SourceM
     return out;
 }
 
-/// Compiles one input; diagnostics and --stats / --dump-after text go to `err`.
-int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::ostream& err) {
+/// Compiles one input; diagnostics and --stats / --dump-after text go to `err`. With `row` (a batch)
+/// the figures go there for the closing table instead of a summary line on `err`.
+int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::ostream& err, JobRow* row = nullptr) {
     frontend::SourceManager sm;
+    const auto start = std::chrono::steady_clock::now();
     return guarded(sm, [&]() -> int {
         refuse_overwriting_input(job.input, job.output);
         compiler::CompileOptions o = compile_options(a);
         o.emit = parse_emit(emit_format(a, job.output));
-        o.report = !a.report.empty();
+        o.report = !job.report.empty();
         o.input_name = job.input;
         o.log = &err;
         if (a.verify) o.verify_pass = PassVerifier(verify_folder_for(job.output), passes::EquivOptions{}, job.verify_tag);
@@ -208,25 +235,29 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
             err << r.failure;
             return kCheckFailed;
         }
-        if (!a.report.empty()) {
-            refuse_overwriting_input(job.input, a.report);
-            write_output(a.report, r.report.dump(2) + "\n");
+        if (!job.report.empty()) {
+            refuse_overwriting_input(job.input, job.report);
+            write_output(job.report, r.report.dump(2) + "\n");
         }
         write_output(job.output, r.text);
-        if (!a.quiet) {
+        const std::string verdict = a.no_check ? "not checked (--no-check)" : r.check_summary;
+        if (row) {
+            const ir::Resources res = ir::count_resources(r.circuit);
+            *row = JobRow{true, res.qubits, rotation_target(a) ? res.t_count + res.non_clifford_rotations : res.t_count,
+                          res.two_qubit_count, res.depth,
+                          std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count(),
+                          short_verdict(verdict)};
+        } else if (!a.quiet) {
             const ir::Resources res = ir::count_resources(r.circuit);
             std::string kept = r.kept_run.empty() ? ""
                                                   : fmt::format(" (kept the run {}: {})", r.kept_run,
                                                                 r.limit_note.empty() ? "cheaper" : "it fits --qubit-limit");
             if (!r.limit_note.empty()) kept += fmt::format(" ({})", r.limit_note);
-            // T is the cost on clifford+t (and nct, which has none); on a rotation target every
-            // non-Clifford rotation is one native rotation, so that is the figure shown.
-            const bool rotation_target = !a.target.empty() && a.target != "clifford+t" && a.target != "nct";
-            const std::string cost = rotation_target
+            const std::string cost = rotation_target(a)
                 ? fmt::format("non-Clifford rotations {}", res.t_count + res.non_clifford_rotations)
                 : fmt::format("T {}", res.t_count);
             err << fmt::format("{}: {} qubits, {}, two-qubit {}, depth {}{}; {}\n", job.input, res.qubits, cost,
-                               res.two_qubit_count, res.depth, kept, a.no_check ? "not checked (--no-check)" : r.check_summary);
+                               res.two_qubit_count, res.depth, kept, verdict);
         }
         if (a.cost_by_line) err << cost_table(r, sm);
         return kOk;
@@ -247,17 +278,21 @@ std::vector<Job> batch_jobs(const CompileArgs& a) {
     namespace fs = std::filesystem;
     if (a.output.empty() || a.output == "-")
         throw UserError("several inputs need -o FOLDER: each output is written there as the input's name with the --emit extension");
-    if (!a.report.empty() && a.inputs.size() > 1)
-        throw UserError("--report takes one input; run the inputs one at a time to get a report each");
     std::error_code ec;
     if (!fs::is_directory(a.output, ec))
         throw UserError(fmt::format("-o '{}' must be an existing folder when several inputs are given", a.output));
+    const bool report_folder = !a.report.empty() && fs::is_directory(a.report, ec);
+    if (!a.report.empty() && !report_folder && a.inputs.size() > 1)
+        throw UserError(fmt::format("--report '{}' must be an existing folder when several inputs are given: each "
+                                    "input's report is written there as the input's name with .json",
+                                    a.report));
     const std::string ext = extension_of(a.emit);
     std::vector<Job> jobs;
     std::map<std::string, std::string> by_output;
     for (const std::string& in : a.inputs) {
         const std::string stem = fs::path(in).stem().string();
-        Job job{in, (fs::path(a.output) / (stem + ext)).string(), stem + "-"};
+        Job job{in, (fs::path(a.output) / (stem + ext)).string(), stem + "-",
+                report_folder ? (fs::path(a.report) / (stem + ".json")).string() : a.report};
         auto [it, fresh] = by_output.emplace(job.output, in);
         if (!fresh)
             throw UserError(fmt::format("inputs '{}' and '{}' would both write '{}'; give them different names", it->second, in,
@@ -267,16 +302,46 @@ std::vector<Job> batch_jobs(const CompileArgs& a) {
     return jobs;
 }
 
+/// The batch's closing table: one row per input in the order given, then the totals.
+std::string batch_table(const CompileArgs& a, const std::vector<Job>& jobs, const std::vector<JobRow>& rows) {
+    size_t name_width = 5;
+    for (const Job& j : jobs) name_width = std::max(name_width, j.input.size());
+    const char* cost = rotation_target(a) ? "rotations" : "T";
+    std::string out = fmt::format("{:<{}} {:>7} {:>9} {:>9} {:>8} {:>8}  {}\n", "input", name_width, "qubits", cost,
+                                  "two-qubit", "depth", "seconds", "check");
+    JobRow total;
+    size_t failed = 0;
+    for (size_t i = 0; i < jobs.size(); ++i) {
+        const JobRow& r = rows[i];
+        if (!r.done) {
+            ++failed;
+            out += fmt::format("{:<{}} {:>7} {:>9} {:>9} {:>8} {:>8}  {}\n", jobs[i].input, name_width, "-", "-", "-", "-", "-",
+                               "failed (message above)");
+            continue;
+        }
+        out += fmt::format("{:<{}} {:>7} {:>9} {:>9} {:>8} {:>8.2f}  {}\n", jobs[i].input, name_width, r.qubits, r.cost,
+                           r.two_qubit, r.depth, r.seconds, r.check);
+        total.cost += r.cost;
+        total.two_qubit += r.two_qubit;
+        total.seconds += r.seconds;
+    }
+    out += fmt::format("{:<{}} {:>7} {:>9} {:>9} {:>8} {:>8.2f}  {} of {} compiled\n", "total", name_width, "", total.cost,
+                       total.two_qubit, "", total.seconds, jobs.size() - failed, jobs.size());
+    return out;
+}
+
 /// Runs the jobs on `a.jobs` threads. Each job's messages are printed whole when it ends, so the
-/// lines of two files never interleave. The exit code is the worst of the jobs' (2 over 1 over 0).
+/// lines of two files never interleave; a table of all the results closes the batch (not with -q).
+/// The exit code is the worst of the jobs' (2 over 1 over 0).
 int run_batch(const CompileArgs& a, const std::vector<Job>& jobs) {
     std::atomic<size_t> next{0};
     std::mutex print_mutex;
     int worst = kOk;
+    std::vector<JobRow> rows(jobs.size());
     auto worker = [&]() {
         for (size_t i = next++; i < jobs.size(); i = next++) {
             std::ostringstream err;
-            int rc = compile_one(a, jobs[i], false, err);
+            int rc = compile_one(a, jobs[i], false, err, &rows[i]);
             std::lock_guard<std::mutex> lock(print_mutex);
             std::cerr << err.str();
             std::cerr.flush();
@@ -288,6 +353,7 @@ int run_batch(const CompileArgs& a, const std::vector<Job>& jobs) {
     for (size_t t = 1; t < threads; ++t) pool.emplace_back(worker);
     worker();
     for (std::thread& t : pool) t.join();
+    if (!a.quiet) std::cerr << batch_table(a, jobs, rows);
     return worst;
 }
 
@@ -302,7 +368,7 @@ int run_compile(const CompileArgs& a) {
     }
     std::error_code ec;
     const bool one = a.inputs.size() == 1 && !std::filesystem::is_directory(a.output, ec);
-    if (one) return compile_one(a, Job{a.inputs[0], a.output, ""}, !a.quiet, std::cerr);
+    if (one) return compile_one(a, Job{a.inputs[0], a.output, "", a.report}, !a.quiet, std::cerr);
     std::vector<Job> jobs;
     frontend::SourceManager no_sources;
     int rc = guarded(no_sources, [&]() -> int {
@@ -339,7 +405,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_flag("--verify", args->verify, "check equivalence after every pass; stop at the first pass that breaks it");
     cmd->add_flag("--no-check", args->no_check,
                   "skip the check of the output against the input (run by default within max(2 s, 10% of the compile time))");
-    cmd->add_option("--report", args->report, "write a JSON resource report to this file");
+    cmd->add_option("--report", args->report,
+                    "write a JSON resource report to this file; with several inputs, an existing folder that gets "
+                    "one report per input (the input's name with .json)");
     cmd->add_option("--emit", args->emit, "output format: wq, qasm2 or qasm3 (overrides the extension)");
     cmd->add_option("--passes", args->passes, "run exactly this comma-separated list of passes instead of an -O pipeline");
     cmd->add_option("--dump-after", args->dump_after, "print the circuit to stderr after the named pass (or 'all')");

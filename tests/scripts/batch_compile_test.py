@@ -4,7 +4,10 @@ Checks that each batch output is byte-identical to compiling that input alone (t
 nothing that changes a result), that a bad input reports its own file:line:column and makes the
 exit code 2 while the other inputs still get their outputs, that no partial or temporary file is
 left, that output names are the input's stem plus the --emit extension, and that clashing names,
-a missing folder and several inputs without -o are usage errors that write nothing."""
+a missing folder and several inputs without -o are usage errors that write nothing; that a batch
+closes with a table of every input's figures, and that --report FOLDER gets one report per input
+with the figures of that input compiled alone."""
+import json
 import os
 import pathlib
 import shutil
@@ -110,6 +113,16 @@ with tempfile.TemporaryDirectory() as tmp:
     check(p.stderr.count("error:") == 1, f"only the bad input reports an error: {p.stderr!r}")
     check(files_in(mixed) == sorted(g.stem + ".wq" for g in good),
           f"the good inputs get their outputs, the bad one none, no temporary file: {files_in(mixed)}")
+    # The closing table: one row per input in the order given, the bad one marked failed, a total.
+    lines = p.stderr.splitlines()
+    header = next((i for i, l in enumerate(lines) if l.split()[:2] == ["input", "qubits"]), len(lines))
+    rows = [l for l in lines[header + 1:] if not l.startswith("total")]
+    check([r.split()[0] for r in rows] == [str(good[0]), str(bad), str(good[1]), str(good[2])],
+          f"the batch table has one row per input, in order: {rows}")
+    check(len(rows) == 4 and "failed" in rows[1], f"the bad input's row says it failed: {rows}")
+    check("3 of 4 compiled" in p.stderr, f"the table's total counts the compiled inputs: {p.stderr!r}")
+    quiet = run("compile", "-q", str(good[0]), str(good[2]), "-o", str(mixed))
+    check(quiet.returncode == 0 and "two-qubit" not in quiet.stderr, f"-q prints no table: {quiet.stderr!r}")
     # The same message as compiling the bad file alone.
     alone_bad = run("compile", str(bad), "-o", str(tmp / "bad_alone.wq"))
     check(alone_bad.returncode == 2 and alone_bad.stderr in p.stderr,
@@ -131,7 +144,37 @@ with tempfile.TemporaryDirectory() as tmp:
     check(p.returncode == 2 and "existing folder" in p.stderr, f"a missing output folder is refused: {p.stderr!r}")
     check(not (tmp / "missing").exists(), "the missing folder is not created")
     p = run("compile", str(good[0]), str(good[2]), "-o", str(clash), "--report", str(tmp / "r.json"))
-    check(p.returncode == 2 and "--report" in p.stderr, f"--report with several inputs is refused: {p.stderr!r}")
+    check(p.returncode == 2 and "--report" in p.stderr and "existing folder" in p.stderr,
+          f"--report naming no folder with several inputs is refused: {p.stderr!r}")
+    check(not (tmp / "r.json").exists() and files_in(clash) == [], "the refused --report batch writes nothing")
+
+    # --report FOLDER: one report per input, named stem.json, each with the figures of the input
+    # compiled alone with --report FILE (the threads share nothing that changes a result).
+    reports = tmp / "reports"
+    reports.mkdir()
+    outs = tmp / "report_outs"
+    outs.mkdir()
+    p = run("compile", "-j", "2", str(good[0]), str(good[1]), str(good[2]), "-o", str(outs), "--report", str(reports),
+            "--target", "clifford+t")
+    check(p.returncode == 0, f"a batch with --report FOLDER exits 0: {p.stderr!r}")
+    check(files_in(reports) == sorted(g.stem + ".json" for g in good), f"one report per input: {files_in(reports)}")
+    for g in good:
+        single = tmp / f"{g.stem}_alone.json"
+        q = run("compile", str(g), "-o", str(tmp / f"{g.stem}_alone.wq"), "--report", str(single), "--target", "clifford+t", "-q")
+        check(q.returncode == 0, f"{g.name} alone with --report: {q.stderr!r}")
+        if q.returncode == 0 and (reports / (g.stem + ".json")).exists():
+            a = json.loads(single.read_text())
+            b = json.loads((reports / (g.stem + ".json")).read_text())
+            for key in ("qubits", "t_count", "two_qubit_count", "depth", "gates"):
+                check(a[key] == b[key], f"{g.stem}: the batch report's {key} is the single compile's ({b[key]} vs {a[key]})")
+        # the table's row shows the report's figures
+        row = [l.split() for l in p.stderr.splitlines() if l.startswith(str(g) + " ")]
+        if row and (reports / (g.stem + ".json")).exists():
+            b = json.loads((reports / (g.stem + ".json")).read_text())
+            check(row[0][1:5] == [str(b["qubits"]), str(b["t_count"]), str(b["two_qubit_count"]), str(b["depth"])],
+                  f"{g.stem}: the table row {row[0][1:5]} shows the report's qubits, T, two-qubit, depth")
+        else:
+            check(False, f"{g.stem}: a table row and a report")
 
     # --verify in parallel: every pass of every input checked, exit 0.
     verified = tmp / "verified"
