@@ -1,5 +1,6 @@
 #!/usr/bin/python3
-"""Prints the cost table of the arithmetic library (docs/arith.md) for n = 4, 8, 16, 32: Toffoli,
+"""Prints the cost table of the arithmetic library (docs/arith.md) for n = 4, 8, 16, 32 (the lookup:
+n = 2, 4, 6, 8 address bits): Toffoli,
 CNOT and work-wire counts measured by `whittle count --json` on the elaborated routine; T-counts
 measured after `whittle compile --target clifford+t` when that target is built, otherwise marked
 as not measured. Usage: docs/arith_costs.py [path/to/whittle]"""
@@ -30,6 +31,7 @@ ROUTINES = {
     "when ctl { add }": ("qubit a[{n}], b[{n}], ctl", "when ctl {{ add(a, b) }}"),
     "when ctl { add_and }": ("qubit a[{n}], b[{n}], ctl", "when ctl {{ add_and(a, b) }}"),
     "when ctl { less_than }": ("qubit a[{n}], b[{n}], f, ctl", "when ctl {{ less_than(a, b, f) }}"),
+    "lookup (n address bits, L = 2^n entries, 8 out bits)": ("qubit addr[{n}], out[8]", "lookup(addr, out, {table})", [2, 4, 6, 8]),
 }
 # x^4+x+1, x^8+x^4+x^3+x+1, x^16+x^5+x^3+x+1, x^32+x^7+x^3+x^2+1 (bit n left implicit)
 POLY = {4: 19, 8: 0x11B, 16: 0x1002B, 32: 0x1_0000_008D}
@@ -64,9 +66,11 @@ def t_count(path, tmp, measure):
 def main():
     rows = []
     with tempfile.TemporaryDirectory() as tmp:
-        for name, (decl, call) in ROUTINES.items():
-            for n in WIDTHS:
-                fields = {"n": n, "k": (1 << n) - 3, "N": (1 << n) - 1, "poly": POLY[n]}
+        for name, (decl, call, *widths) in ROUTINES.items():
+            for n in (widths[0] if widths else WIDTHS):
+                # the lookup's table: 2^n entries of 8 bits, a fixed pattern
+                table = "[" + ", ".join(str((i * 37 + 11) % 256) for i in range(1 << n)) + "]"
+                fields = {"n": n, "k": (1 << n) - 3, "N": (1 << n) - 1, "poly": POLY.get(n, 0), "table": table}
                 prog = pathlib.Path(tmp) / "p.wq"
                 prog.write_text('use "arith"\n' + decl.format(**fields) + "\n" + call.format(**fields) + "\n")
                 j = count(prog)

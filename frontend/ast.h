@@ -44,6 +44,7 @@ enum class ExprKind : uint8_t {
     And, Xor, Or,  ///< on wires: Boolean; on compile-time integers: bitwise
     Shl, Shr,      ///< compile-time integers only
     Eq, Ne, Lt, Le, Gt, Ge,  ///< compile-time comparisons, 0 or 1
+    Table,   ///< [e0, e1, ...]: a compile-time table of integers; its entries are File::tables[ival]
 };
 
 struct Expr {
@@ -102,7 +103,7 @@ struct Stmt {
     uint32_t path = kNone;         ///< Use: index into File::strings
 };
 
-enum class ParamKind : uint8_t { Qubit, Register, Int, Angle };
+enum class ParamKind : uint8_t { Qubit, Register, Int, Angle, IntTable };  ///< IntTable: `int name[]`
 
 struct Param {
     uint32_t sym = kNone;
@@ -123,6 +124,7 @@ struct File {
     std::vector<Expr> exprs;
     std::vector<Stmt> stmts;
     std::vector<std::vector<uint32_t>> blocks;  ///< statement indices; blocks[0] is the file's top level
+    std::vector<std::vector<uint32_t>> tables;  ///< the entries (expressions) of each `[...]` table literal
     std::vector<Routine> routines;
     std::vector<std::string> strings;
 

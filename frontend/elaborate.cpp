@@ -107,8 +107,15 @@ void Elaborator::exec_stmt(const File& f, const Stmt& s) {
     switch (s.kind) {
     case StmtKind::Let: {
         Binding b;
-        b.kind = Binding::Num;
-        b.num = eval_number(f, s.expr);
+        const Expr& value = f.exprs[s.expr];
+        const Binding* named = value.kind == ExprKind::Name ? lookup(value.sym) : nullptr;
+        if (value.kind == ExprKind::Table || (named && named->kind == Binding::Table)) {
+            b.kind = Binding::Table;
+            b.table = eval_table(f, s.expr);
+        } else {
+            b.kind = Binding::Num;
+            b.num = eval_number(f, s.expr);
+        }
         bind(s.sym, b, loc);
         return;
     }

@@ -94,6 +94,10 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
             b.kind = Binding::Num;
             b.num = Number{Number::Rat, eval_int(f, ae, "an int argument"), 1, 0.0};
             break;
+        case ParamKind::IntTable:
+            b.kind = Binding::Table;
+            b.table = eval_table(f, ae);
+            break;
         case ParamKind::Angle: {
             b.kind = Binding::Num;
             ir::Angle a = eval_angle(f, ae);

@@ -75,16 +75,30 @@ Number Elaborator::eval_number(const File& f, uint32_t ei) const {
         const Binding* b = lookup(e.sym);
         if (!b) fail(f, e, fmt::format("unknown name '{}'", name(e.sym)));
         if (b->kind == Binding::Num) return b->num;
+        if (b->kind == Binding::Table)
+            fail(f, e, fmt::format("expected a number, but '{}' is a table of {} integers: pick one with {}[i]", name(e.sym),
+                                   b->table->size(), name(e.sym)));
         fail(f, e, fmt::format("expected a number, but '{}' is a {}", name(e.sym),
                                b->kind == Binding::Bits ? "classical bit" : "wire or register"));
     }
-    case ExprKind::Index: fail(f, e, fmt::format("expected a number, but '{}[...]' is a wire", name(e.sym)));
+    case ExprKind::Index: {
+        const Binding* b = lookup(e.sym);
+        if (!b || b->kind != Binding::Table) fail(f, e, fmt::format("expected a number, but '{}[...]' is a wire", name(e.sym)));
+        const int64_t i = eval_int(f, e.lhs, "an index");
+        if (i < 0 || i >= int64_t(b->table->size()))
+            fail(f, f.exprs[e.lhs], b->table->empty() ? fmt::format("index {} is out of range for '{}' (an empty table)", i, name(e.sym))
+                                                      : fmt::format("index {} is out of range for '{}' (entries 0..{})", i,
+                                                                    name(e.sym), b->table->size() - 1));
+        return Number{Number::Rat, (*b->table)[size_t(i)], 1, 0.0};
+    }
+    case ExprKind::Table: fail(f, e, "expected a number, found a table [...] (bind it with `let` or pass it as an `int name[]`)");
     case ExprKind::Call: {
         if (name(e.sym) != "size") return eval_function(f, e);
         const Expr& arg = f.exprs[e.lhs];
         const Binding* b = arg.kind == ExprKind::Name ? lookup(arg.sym) : nullptr;
+        if (b && b->kind == Binding::Table) return Number{Number::Rat, int64_t(b->table->size()), 1, 0.0};
         if (!b || (b->kind != Binding::Register && b->kind != Binding::Wire && b->kind != Binding::Bits))
-            fail(f, arg, "expected a register name inside size(...)");
+            fail(f, arg, "expected a register or table name inside size(...)");
         return Number{Number::Rat, b->kind == Binding::Wire ? 1 : int64_t(b->size), 1, 0.0};
     }
     case ExprKind::Neg: {
@@ -300,6 +314,20 @@ Number Elaborator::eval_integer_op(const File& f, const Expr& e) const {
     fail(f, e, "not an integer operation");
 }
 
+std::shared_ptr<const std::vector<int64_t>> Elaborator::eval_table(const File& f, uint32_t ei) const {
+    const Expr& e = f.exprs[ei];
+    if (e.kind == ExprKind::Name) {
+        const Binding* b = lookup(e.sym);
+        if (b && b->kind == Binding::Table) return b->table;
+    }
+    if (e.kind != ExprKind::Table) fail(f, e, "expected a table of integers: [a, b, ...] or the name of one");
+    const std::vector<uint32_t>& entries = f.tables[size_t(e.ival)];
+    auto t = std::make_shared<std::vector<int64_t>>();
+    t->reserve(entries.size());
+    for (uint32_t x : entries) t->push_back(eval_int(f, x, "a table entry"));
+    return t;
+}
+
 int64_t Elaborator::eval_int(const File& f, uint32_t e, const char* what) const {
     Number n = eval_number(f, e);
     if (n.kind == Number::Rat && n.den == 1) return n.num;
@@ -328,6 +356,7 @@ uint32_t Elaborator::resolve_wire(const File& f, uint32_t ei) const {
     const Binding* b = lookup(e.sym);
     if (!b) fail(f, e, fmt::format("unknown wire '{}'", name(e.sym)));
     if (b->kind == Binding::Num) fail(f, e, fmt::format("expected a wire, but '{}' is a number", name(e.sym)));
+    if (b->kind == Binding::Table) fail(f, e, fmt::format("expected a wire, but '{}' is a table of integers", name(e.sym)));
     if (b->kind == Binding::Bits)
         fail(f, e, fmt::format("expected a wire, but '{}' is a classical bit (use it in 'if')", name(e.sym)));
     const bool single = b->kind == Binding::Wire || b->scalar;
@@ -370,7 +399,15 @@ uint32_t Elaborator::build_bool_node(const File& f, uint32_t ei, BoolExpr& out) 
         }
         return out.var(resolve_wire(f, ei), loc);
     }
-    case ExprKind::Index: return out.var(resolve_wire(f, ei), loc);
+    case ExprKind::Index: {
+        const Binding* b = lookup(e.sym);
+        if (b && b->kind == Binding::Table) {  // a table entry is a constant: 0 or 1 here
+            const int64_t v = eval_int(f, ei, "a table entry");
+            if (v != 0 && v != 1) fail(f, e, fmt::format("expected a wire or 0/1, but '{}[...]' is {}", name(e.sym), v));
+            return out.constant(v == 1, loc);
+        }
+        return out.var(resolve_wire(f, ei), loc);
+    }
     case ExprKind::Not: {
         uint32_t a = build_bool_node(f, e.lhs, out);
         return out.op(BoolNode::Not, a, 0, loc);
@@ -401,6 +438,7 @@ uint32_t Elaborator::build_bool_node(const File& f, uint32_t ei, BoolExpr& out) 
                    "found arithmetic");
     case ExprKind::Real:
     case ExprKind::Pi:
+    case ExprKind::Table:
     case ExprKind::Call: break;
     }
     fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1)");
@@ -410,7 +448,7 @@ bool Elaborator::comparison_wires(const File& f, uint32_t ei, std::vector<uint32
     const Expr& e = f.exprs[ei];
     if (e.kind == ExprKind::Index) {
         const Binding* b = lookup(e.sym);
-        if (!b || b->kind == Binding::Num) return false;
+        if (!b || b->kind == Binding::Num || b->kind == Binding::Table) return false;
         wires.push_back(resolve_wire(f, ei));
         return true;
     }

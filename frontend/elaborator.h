@@ -28,9 +28,10 @@ struct Number {
 
 /// What a name stands for in a scope.
 struct Binding {
-    enum Kind : uint8_t { None, Num, Wire, Register, Bits };
+    enum Kind : uint8_t { None, Num, Wire, Register, Bits, Table };
     Kind kind = None;
     Number num;
+    std::shared_ptr<const std::vector<int64_t>> table;  ///< Table: the integers, shared by every copy of the binding
     uint32_t first = 0, size = 0;  ///< Wire: first; Register: first wire and size; Bits: creg index
     bool scalar = false;
 };
@@ -82,6 +83,8 @@ private:
     Number eval_integer_op(const File& f, const Expr& e) const;  ///< & ^ | << >> and comparisons
     Number eval_function(const File& f, const Expr& e) const;    ///< sqrt exp log asin acos atan
     int64_t eval_int(const File& f, uint32_t e, const char* what) const;
+    /// A table of integers: a `[...]` literal or the name of one (`let t = [...]`, an `int t[]` parameter).
+    std::shared_ptr<const std::vector<int64_t>> eval_table(const File& f, uint32_t e) const;
     ir::Angle eval_angle(const File& f, uint32_t e) const;
     uint32_t resolve_wire(const File& f, uint32_t e) const;
     void resolve_wires(const File& f, uint32_t e, std::vector<uint32_t>& out) const;

@@ -282,6 +282,23 @@ private:
             if (sym == pi_ && !t.quoted) return node(ExprKind::Pi, t);
             return parse_name_tail(sym, t);
         }
+        case Tok::LBracket: {  // a table of integers: [e0, e1, ...]
+            DepthGuard g(*this, t);
+            open(Tok::LBracket, "'['");
+            std::vector<uint32_t> entries;
+            if (!is(Tok::RBracket)) {
+                entries.push_back(parse_expr());
+                while (is(Tok::Comma)) {
+                    advance();
+                    entries.push_back(parse_expr());
+                }
+            }
+            close(Tok::RBracket, "',' or ']' in the table");
+            uint32_t n = node(ExprKind::Table, t);
+            file_.exprs[n].ival = int64_t(file_.tables.size());
+            file_.tables.push_back(std::move(entries));
+            return n;
+        }
         default: expected("an expression (a name, a number, 'pi' or '(')");
         }
     }
@@ -594,10 +611,11 @@ private:
             }
             p.sym = expect_ident("a parameter name");
             if (is(Tok::LBracket)) {
-                if (p.kind != ParamKind::Qubit) expected("',' or ')' (number parameters take no '[]')");
+                if (p.kind == ParamKind::Angle) expected("',' or ')' (angle parameters take no '[]')");
                 advance();
-                expect(Tok::RBracket, "']' right after '[' (a register parameter is written 'name[]')");
-                p.kind = ParamKind::Register;
+                expect(Tok::RBracket, p.kind == ParamKind::Int ? "']' right after '[' (a table parameter is written 'int name[]')"
+                                                               : "']' right after '[' (a register parameter is written 'name[]')");
+                p.kind = p.kind == ParamKind::Int ? ParamKind::IntTable : ParamKind::Register;
             }
             r.params.push_back(p);
             if (is(Tok::Comma)) {

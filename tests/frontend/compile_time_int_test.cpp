@@ -74,3 +74,33 @@ TEST_CASE("if on a classical bit keeps its meaning; else needs a compile-time co
     CHECK(error_of("qubit q\nif 1 { x q }\nelse { h q }\n") ==
           "3:1: 'else' without 'if': write it after the '}' of the 'if' block, on the same line");
 }
+
+TEST_CASE("tables of integers: literals, let, int t[] parameters, entries and size") {
+    // `repeat v` counts: each value below is the table entry or size read back as a number of ops.
+    CHECK(load("let t = [4, 9, 2]\nqubit q\nrepeat t[1] { x q }\n").ops.size() == 9);
+    CHECK(load("let t = [4, 9, 2]\nqubit q\nrepeat size(t) { x q }\n").ops.size() == 3);
+    CHECK(load("let t = [4, 9, 2]\nlet u = t\nqubit q\nrepeat u[2] * 10 + u[0] { x q }\n").ops.size() == 24);
+    CHECK(load("let t = []\nqubit q\nrepeat size(t) { x q }\n").ops.size() == 0);
+    CHECK(load("let t = [-3, 1 << 2]\nqubit q\nrepeat t[0] + 2 * t[1] { x q }\n").ops.size() == 5);
+    // a routine's `int t[]` parameter takes a literal or a name; a loop reads every entry
+    const std::string r = "routine count_up(q, int t[]) { for i in 0..size(t)-1 { repeat t[i] { x q } } }\nqubit q\n";
+    CHECK(load(r + "count_up(q, [1, 2, 3])\n").ops.size() == 6);
+    CHECK(load(r + "let t = [5, 0]\ncount_up(q, t)\n").ops.size() == 5);
+    // entries 0 and 1 are Boolean constants in a wire expression
+    CHECK(ops_text("let t = [0, 1]\nqubit a, b\nb ^= a & t[1]\n") == "b ^= a\n");
+}
+
+TEST_CASE("tables of integers: errors name the place") {
+    CHECK(error_of("let t = [1, 2]\nqubit q\nrepeat t[2] { x q }\n") == "3:10: index 2 is out of range for 't' (entries 0..1)");
+    CHECK(error_of("let t = []\nqubit q\nrepeat t[0] { x q }\n") == "3:10: index 0 is out of range for 't' (an empty table)");
+    CHECK(error_of("let t = [1, 2]\nlet y = t + 1\n") ==
+          "2:9: expected a number, but 't' is a table of 2 integers: pick one with t[i]");
+    CHECK(error_of("let t = [1, pi]\n") == "1:13: a table entry must be an integer, found an angle");
+    CHECK(error_of("let t = [1, 2]\nqubit a\nx t\n") == "3:3: expected a wire, but 't' is a table of integers");
+    CHECK(error_of("qubit a\nrz([1]) a\n") ==
+          "2:4: expected a number, found a table [...] (bind it with `let` or pass it as an `int name[]`)");
+    CHECK(error_of("routine f(q, int t[]) { x q }\nqubit a\nf(a, 3)\n") ==
+          "3:6: expected a table of integers: [a, b, ...] or the name of one");
+    CHECK(error_of("let t = [0, 2]\nqubit a, b\nb ^= a & t[1]\n") == "3:10: expected a wire or 0/1, but 't[...]' is 2");
+    CHECK(error_of("let t = [1, 2\n").find("expected ',' or ']' in the table") != std::string::npos);
+}
