@@ -22,6 +22,7 @@ ROUTINES = {
     "sub": ("qubit a[{n}], b[{n}]", "sub(a, b)"),
     "add_const (k = 2^n - 3)": ("qubit b[{n}]", "add_const(b, {k})"),
     "less_than": ("qubit a[{n}], b[{n}], f", "less_than(a, b, f)"),
+    "less_than_and": ("qubit a[{n}], b[{n}], f", "less_than_and(a, b, f)"),
     "less_than_const (k = 2^n - 3)": ("qubit a[{n}], f", "less_than_const(a, {k}, f)"),
     "equals_const (k = 2^n - 3)": ("qubit a[{n}], f", "equals_const(a, {k}, f)"),
     "mul (n x n -> n bits)": ("qubit a[{n}], b[{n}], p[{n}]", "mul(a, b, p)"),

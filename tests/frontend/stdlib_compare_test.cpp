@@ -15,6 +15,23 @@ TEST_CASE("stdlib: less_than flips f exactly when a < b") {
     }
 }
 
+TEST_CASE("stdlib: less_than_and flips f exactly when a < b") {
+    for (unsigned n : {1u, 2u, 3u, 4u, 5u, 32u, 64u}) {
+        CAPTURE(n);
+        check_routine({{"a", n}, {"b", n}, {"f", 1}}, "less_than_and(a, b, f[0])", [](const Values& in) {
+            Values out = in;
+            out["f"] = in.at("f") ^ u128(in.at("a") < in.at("b"));
+            return out;
+        });
+    }
+    // a shorter a against a longer b compares the low bits of b, as less_than does
+    check_routine({{"a", 3}, {"b", 5}, {"f", 1}}, "less_than_and(a, b, f[0])", [](const Values& in) {
+        Values out = in;
+        out["f"] = in.at("f") ^ u128(in.at("a") < (in.at("b") & 7));
+        return out;
+    });
+}
+
 TEST_CASE("stdlib: less_than_const and equals_const for every constant up to 5 bits") {
     for (unsigned n : {1u, 2u, 3u, 4u, 5u})
         for (int64_t k = -2; k <= (int64_t(1) << n) + 2; ++k) {

@@ -89,3 +89,18 @@ TEST_CASE("gf2_mul n = 8 after -O2 is no costlier than the published constructio
     MESSAGE("gf2_mul n=8 at -O2: T " << library << "; the published construction's circuit: " << reference);
     CHECK(library <= reference);
 }
+
+TEST_CASE("less_than_and: 4 T per carry with measured erase, half of less_than's") {
+    // One temporary AND per carry (n of them) at 4 T each, its erase a measurement: the AND of
+    // Gidney 2018 (arXiv:1709.06648: the temporary AND costs 4 T and its erase none; from memory).
+    // The MAJ-chain less_than keeps 2n Toffolis.
+    for (unsigned n : {2u, 4u, 8u, 16u}) {
+        CAPTURE(n);
+        const std::string decl = "use \"arith\"\nqubit a[" + std::to_string(n) + "], b[" + std::to_string(n) + "], f\n";
+        const int64_t with_and = t_count_after(decl + "less_than_and(a, b, f)\n", 2, true);
+        const int64_t chain = t_count_after(decl + "less_than(a, b, f)\n", 2, true);
+        MESSAGE("n=" << n << ": less_than_and " << with_and << " T, less_than " << chain << " T (with measurement)");
+        CHECK(with_and == int64_t(4 * n));
+        CHECK(with_and < chain);
+    }
+}
