@@ -26,6 +26,8 @@ ROUTINES = {
     "less_than_const (k = 2^n - 3)": ("qubit a[{n}], f", "less_than_const(a, {k}, f)"),
     "equals_const (k = 2^n - 3)": ("qubit a[{n}], f", "equals_const(a, {k}, f)"),
     "mul (n x n -> n bits)": ("qubit a[{n}], b[{n}], p[{n}]", "mul(a, b, p)"),
+    "square (n -> 2n bits)": ("qubit a[{n}], p[{n2}]", "square(a, p)"),
+    "mod_mul_const (x: 4 bits, N = 2^n - 1, k = 5)": ("qubit x[4], out[{n}]", "mod_mul_const(x, out, 5, {N})", [4, 8, 16]),
     "mod_add_const (N = 2^n - 1, k = 5)": ("qubit b[{n}]", "mod_add_const(b, 5, {N})"),
     "gf2_mul (trinomial / pentanomial)": ("qubit a[{n}], b[{n}], c[{n}]", "gf2_mul(a, b, c, {poly})"),
     "diffuse": ("qubit r[{n}]", "diffuse(r)"),
@@ -71,7 +73,7 @@ def main():
             for n in (widths[0] if widths else WIDTHS):
                 # the lookup's table: 2^n entries of 8 bits, a fixed pattern
                 table = "[" + ", ".join(str((i * 37 + 11) % 256) for i in range(1 << n)) + "]"
-                fields = {"n": n, "k": (1 << n) - 3, "N": (1 << n) - 1, "poly": POLY.get(n, 0), "table": table}
+                fields = {"n": n, "k": (1 << n) - 3, "N": (1 << n) - 1, "poly": POLY.get(n, 0), "table": table, "n2": 2 * n}
                 prog = pathlib.Path(tmp) / "p.wq"
                 prog.write_text('use "arith"\n' + decl.format(**fields) + "\n" + call.format(**fields) + "\n")
                 j = count(prog)

@@ -36,6 +36,52 @@ TEST_CASE("stdlib: mul gives p + a*b mod 2^len(p)") {
         });
 }
 
+TEST_CASE("stdlib: square gives p + a*a mod 2^len(p)") {
+    for (unsigned n : {1u, 2u, 3u, 4u, 5u, 32u})
+        for (unsigned m : {n, 2 * n, n + 1}) {
+            if (m > 64) continue;
+            CAPTURE(n);
+            CAPTURE(m);
+            check_routine({{"a", n}, {"p", m}}, "square(a, p)", [m](const Values& in) {
+                Values out = in;
+                out["p"] = (in.at("p") + in.at("a") * in.at("a")) & mask(m);
+                return out;
+            });
+        }
+}
+
+TEST_CASE("stdlib: mod_mul_const gives (out + x*k) mod N for out < N and leaves out >= N alone") {
+    for (unsigned n : {1u, 2u, 3u, 4u})
+        for (int64_t N = 1; N <= (int64_t(1) << n); ++N)
+            for (int64_t k : {int64_t(0), int64_t(1), N - 1, 2 * N + 1, int64_t(5)}) {
+                if (k < 0) continue;
+                CAPTURE(n);
+                CAPTURE(N);
+                CAPTURE(k);
+                check_routine({{"x", 3}, {"out", n}},
+                              "mod_mul_const(x, out, " + std::to_string(k) + ", " + std::to_string(N) + ")",
+                              [N, k](const Values& in) {
+                                  Values out = in;
+                                  const u128 o = in.at("out");
+                                  if (o < u128(N)) out["out"] = (o + in.at("x") * u128(k)) % u128(N);
+                                  return out;
+                              });
+            }
+    std::mt19937_64 rng(11);
+    for (unsigned n : {8u, 32u}) {
+        const int64_t N = int64_t(rng() & uint64_t(mask(n))) | 1;
+        const int64_t k = int64_t(rng() % uint64_t(N));
+        CAPTURE(n);
+        check_routine({{"x", 6}, {"out", n}}, "mod_mul_const(x, out, " + std::to_string(k) + ", " + std::to_string(N) + ")",
+                      [N, k](const Values& in) {
+                          Values out = in;
+                          const u128 o = in.at("out");
+                          if (o < u128(N)) out["out"] = (o + in.at("x") * u128(k)) % u128(N);
+                          return out;
+                      });
+    }
+}
+
 TEST_CASE("stdlib: mod_add_const gives (b + k) mod N for b < N and leaves b >= N alone") {
     for (unsigned n : {1u, 2u, 3u, 4u})
         for (int64_t N = 1; N <= (int64_t(1) << n); ++N)
