@@ -18,6 +18,8 @@ struct DrawOptions {
     unsigned width = 24;  ///< columns per row; longer circuits wrap into several rows (0 = never wrap)
     bool ascii = false;   ///< text only: plain ASCII instead of UTF-8 box-drawing symbols
     bool counts = true;   ///< print the resource counts under each title
+    bool hide_idle = false;  ///< leave out wires no op touches (LayoutOptions::hide_idle)
+    bool by_line = false;    ///< bracket the ops of each source line (LayoutOptions::by_line)
 };
 
 /// The panels one above the other as text: register headers with role badges, wires, controls

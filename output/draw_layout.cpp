@@ -2,6 +2,7 @@
 #include "output/draw_layout.h"
 
 #include <algorithm>
+#include <filesystem>
 
 #include <fmt/format.h>
 
@@ -23,7 +24,9 @@ size_t Glyph::label_chars() const {
     return w;
 }
 
-std::string Region::label() const { return fmt::format("{} #{}", compute ? "compute" : "uncompute", pair); }
+std::string Region::label() const {
+    return text.empty() ? fmt::format("{} #{}", compute ? "compute" : "uncompute", pair) : text;
+}
 
 std::string angle_label(const ir::Angle& a, bool ascii) {
     if (!a.is_exact()) {
@@ -221,25 +224,68 @@ Layout layout_circuit(const ir::Circuit& c, const LayoutOptions& opts) {
         L.lanes.push_back(lane);
     }
 
+    // Idle lanes out: a lane no glyph marks or spans the end of is dropped, the others renumbered.
+    std::vector<uint32_t> lane_of(L.lanes.size());
+    for (uint32_t l = 0; l < lane_of.size(); ++l) lane_of[l] = l;
+    if (opts.hide_idle) {
+        std::vector<uint8_t> used(L.lanes.size(), 0);
+        for (const ir::Op& op : c.ops) {
+            Glyph g;
+            if (!make_glyph(c, op, opts, g)) continue;
+            used[g.lo] = used[g.hi] = 1;
+            for (const Mark& m : g.marks) used[m.lane] = 1;
+        }
+        std::vector<Lane> kept;
+        for (uint32_t l = 0; l < L.lanes.size(); ++l) {
+            if (!used[l]) continue;
+            lane_of[l] = uint32_t(kept.size());
+            kept.push_back(L.lanes[l]);
+            // a register's header goes over its first lane still drawn
+            kept.back().group_start = kept.size() == 1 || kept[kept.size() - 2].group != kept.back().group ||
+                                      kept[kept.size() - 2].classical != kept.back().classical;
+        }
+        L.lanes = std::move(kept);
+    }
+
     // ASAP packing by lane span: an op's column is the first one after every op that covers any
-    // lane of its span. Entering or leaving a compute/uncompute half raises a floor over all lanes.
+    // lane of its span. Entering or leaving a compute/uncompute half (or with by_line a source
+    // line) raises a floor over all lanes.
     std::vector<uint32_t> next_free(L.lanes.size(), 0);
     auto all_free = [&] { return next_free.empty() ? 0u : *std::max_element(next_free.begin(), next_free.end()); };
     uint32_t floor = 0;
-    int64_t region_key = -1;  // pair * 2 + (uncompute ? 1 : 0), -1 outside regions
+    int64_t region_key = -1;  // pair * 2 + (uncompute ? 1 : 0), or file << 32 | line; -1 outside regions
     for (size_t i = 0; i < c.ops.size(); ++i) {
         const ir::Op& op = c.ops[i];
-        int64_t key = (op.half == ir::PairHalf::None || op.pair == 0)
-                          ? -1
-                          : int64_t(op.pair) * 2 + (op.half == ir::PairHalf::Uncompute ? 1 : 0);
+        int64_t key = -1;
+        const uint32_t line = op.loc.line;  // copies: SourceLoc is packed
+        const uint16_t file = op.loc.file;
+        if (opts.by_line) {
+            if (line != 0) key = int64_t(file) << 32 | line;
+        } else if (op.half != ir::PairHalf::None && op.pair != 0) {
+            key = int64_t(op.pair) * 2 + (op.half == ir::PairHalf::Uncompute ? 1 : 0);
+        }
         if (key != region_key) {
             floor = all_free();
-            if (key >= 0) L.regions.push_back({floor, floor, op.half == ir::PairHalf::Compute, op.pair});
+            if (key >= 0) {
+                L.regions.push_back({floor, floor, op.half == ir::PairHalf::Compute, op.pair, ""});
+                if (opts.by_line) {
+                    const bool main_file = file == 0 || file >= c.files.size();
+                    L.regions.back().text =
+                        main_file ? fmt::format("line {}", line)
+                                  : fmt::format("{}:{}", std::filesystem::path(c.files[file]).filename().string(), line);
+                }
+            }
             region_key = key;
         }
         Glyph g;
         g.op_index = i;
         if (!make_glyph(c, op, opts, g)) continue;
+        if (opts.hide_idle) {
+            for (Mark& m : g.marks) m.lane = lane_of[m.lane];
+            g.lo = lane_of[g.lo];
+            g.hi = lane_of[g.hi];
+            if (g.classical >= 0) g.classical = int32_t(lane_of[size_t(g.classical)]);
+        }
         uint32_t col = floor;
         for (uint32_t l = g.lo; l <= g.hi; ++l) col = std::max(col, next_free[l]);
         for (uint32_t l = g.lo; l <= g.hi; ++l) next_free[l] = col + 1;

@@ -58,12 +58,14 @@ struct Glyph {
     size_t label_chars() const;
 };
 
-/// A compute or uncompute region: the columns its ops occupy (contiguous by construction).
+/// A compute or uncompute region, or with LayoutOptions::by_line the ops of one source line: the
+/// columns its ops occupy (contiguous by construction).
 struct Region {
     uint32_t first_col = 0, last_col = 0;
     bool compute = true;
     uint32_t pair = 0;
-    std::string label() const;  ///< "compute #3" or "uncompute #3"
+    std::string text;           ///< the label of a source-line region ("line 12")
+    std::string label() const;  ///< `text`, else "compute #3" or "uncompute #3"
 };
 
 struct Layout {
@@ -76,12 +78,16 @@ struct Layout {
 };
 
 struct LayoutOptions {
-    bool ascii = false;  ///< labels in plain ASCII (pi, &, !, ^) instead of π ∧ ¬ ⊕
+    bool ascii = false;      ///< labels in plain ASCII (pi, &, !, ^) instead of π ∧ ¬ ⊕
+    bool hide_idle = false;  ///< leave out the lanes of wires and classical registers no op touches
+    /// Bracket the ops of each source line (Op::loc) instead of compute/uncompute halves: the ops of
+    /// one line keep a run of columns of their own, labelled "line N" ("file:N" for another file).
+    bool by_line = false;
 };
 
 /// Lays the circuit out: one lane per wire grouped by register (in declaration order), one lane per
 /// classical register, ops packed ASAP into columns by the lane span they cover; the ops of one
-/// compute or uncompute half stay together in a run of columns of their own.
+/// compute or uncompute half (with by_line: of one source line) stay together in a run of columns.
 Layout layout_circuit(const ir::Circuit& c, const LayoutOptions& opts = {});
 
 /// Display width of UTF-8 text (code points; every symbol the drawers use is one cell wide).

@@ -238,7 +238,10 @@ std::string draw_svg(const std::vector<DrawPanel>& panels, const DrawOptions& op
             svg.text(kMargin, y, counts_line(c), 12, "#475569", "start");
             y += 4;
         }
-        Layout L = layout_circuit(c);
+        LayoutOptions lo;
+        lo.hide_idle = opts.hide_idle;
+        lo.by_line = opts.by_line;
+        Layout L = layout_circuit(c, lo);
         const uint32_t step = opts.width == 0 ? std::max<uint32_t>(L.columns, 1) : opts.width;
         if (L.columns == 0) y += draw_row(svg, L, 0, 0, y, width);
         for (uint32_t c0 = 0; c0 < L.columns; c0 += step) {

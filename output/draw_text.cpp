@@ -153,6 +153,8 @@ std::string draw_text(const std::vector<DrawPanel>& panels, const DrawOptions& o
     const TextSymbols& S = opts.ascii ? kAsciiSyms : kUtf8;
     LayoutOptions lo;
     lo.ascii = opts.ascii;
+    lo.hide_idle = opts.hide_idle;
+    lo.by_line = opts.by_line;
     std::string out;
     for (size_t p = 0; p < panels.size(); ++p) {
         const ir::Circuit& c = *panels[p].circuit;

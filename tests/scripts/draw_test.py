@@ -1,5 +1,6 @@
 # `whittle draw`: the SVG parses with a real XML parser (lxml) and renders to a non-blank PNG with
-# rsvg-convert (librsvg); the text form holds the same content; --compare and wrapping work.
+# rsvg-convert (librsvg); the text form holds the same content; --compare and wrapping work; PNG and
+# PDF outputs, --hide-idle, and --by-line on a program compiled with --target.
 import os
 import struct
 import subprocess
@@ -156,8 +157,56 @@ with tempfile.TemporaryDirectory() as tmp:
         fail("--width does not wrap")
 
     # Bad output names: exit 2, a message, no file left behind.
-    bad = os.path.join(tmp, "x.png")
+    bad = os.path.join(tmp, "x.gif")
     r = run(["draw", samples[0], "-o", bad])
     if r.returncode != 2 or "svg" not in r.stderr or os.path.exists(bad):
-        fail(f"draw -o x.png: rc {r.returncode}, {r.stderr!r}")
+        fail(f"draw -o x.gif: rc {r.returncode}, {r.stderr!r}")
+
+    # PNG and PDF outputs (made by rsvg-convert): the PNG decodes and has ink, the PDF has its header.
+    png = os.path.join(tmp, "direct.png")
+    r = run(["draw", samples[0], "-o", png])
+    if r.returncode != 0 or not os.path.exists(png) or ink_share(png)[0] < 0.005:
+        fail(f"draw -o .png: rc {r.returncode}, {r.stderr!r}")
+    pdf = os.path.join(tmp, "direct.pdf")
+    r = run(["draw", samples[0], "-o", pdf])
+    if r.returncode != 0 or open(pdf, "rb").read(5) != b"%PDF-":
+        fail(f"draw -o .pdf: rc {r.returncode}, {r.stderr!r}")
+    # Without rsvg-convert on the PATH: a message naming it, exit 2, no file.
+    gone = os.path.join(tmp, "gone.png")
+    r = subprocess.run([WHITTLE, "draw", samples[0], "-o", gone], capture_output=True, text=True,
+                       env={**os.environ, "PATH": "/nonexistent"})
+    if r.returncode != 2 or "rsvg-convert" not in r.stderr or os.path.exists(gone):
+        fail(f"draw -o .png without rsvg-convert: rc {r.returncode}, {r.stderr!r}")
+
+    # --hide-idle: the lanes of wires no op touches are left out (Harbor Logistics: a berth flag
+    # computed from two sensors, three spare sensor wires and a work wire untouched).
+    idle = os.path.join(tmp, "idle.wq")
+    with open(idle, "w") as f:
+        f.write("qubit sensor_a, sensor_b, spare[3], berth_flag\nancilla scratch\nberth_flag ^= sensor_a & sensor_b\n")
+    full = run(["draw", idle, "-o", "-", "--ascii"])
+    hidden = run(["draw", idle, "-o", "-", "--ascii", "--hide-idle"])
+    if full.returncode != 0 or hidden.returncode != 0:
+        fail(f"--hide-idle runs: {full.stderr!r} {hidden.stderr!r}")
+    elif "spare" not in full.stdout or "scratch" not in full.stdout:
+        fail("the full drawing shows the idle wires")
+    elif "spare" in hidden.stdout or "scratch" in hidden.stdout or "berth_flag" not in hidden.stdout:
+        fail(f"--hide-idle leaves out exactly the idle wires:\n{hidden.stdout}")
+
+    # --by-line with --target: the compiled ops are bracketed by the source line that made them, and
+    # the drawing is of the checked compile (its counts line equals `compile`'s output counts).
+    adder = os.path.join(SRC, "samples", "load_adder.wq")
+    r = run(["draw", adder, "-o", "-", "--target", "clifford+t", "--by-line", "--width", "0", "--ascii"])
+    lines = open(adder).read().splitlines()
+    call_lines = [i + 1 for i, l in enumerate(lines) if l.strip() and not l.strip().startswith(("#", "let", "qubit", "ancilla", "routine"))]
+    if r.returncode != 0:
+        fail(f"--by-line --target: {r.stderr!r}")
+    else:
+        shown = {int(x) for x in __import__("re").findall(r"line (\d+)", r.stdout)}
+        if not shown or not shown <= set(call_lines):
+            fail(f"--by-line brackets name source lines with statements: {sorted(shown)} vs {call_lines}")
+        out = os.path.join(tmp, "adder.wq")
+        c = run(["compile", adder, "--target", "clifford+t", "-o", out, "-q"])
+        counts = run(["draw", out, "-o", "-", "--ascii", "--width", "0"])
+        if c.returncode != 0 or r.stdout.splitlines()[1] != counts.stdout.splitlines()[1]:
+            fail(f"--target draws the compiled program: {r.stdout.splitlines()[1]!r} vs {counts.stdout.splitlines()[1]!r}")
 sys.exit(0 if ok else 1)
