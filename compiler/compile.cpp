@@ -41,8 +41,9 @@ std::string emit_text(const ir::Circuit& c, Emit e) {
 
 /// Inputs up to this many ops also compile the alternative runs (compile_alternatives).
 constexpr size_t kAlternativesMaxOps = 2000;
-/// Up to this many input ops a compile with gadget wires also runs without them (see alternative_runs).
-constexpr size_t kGadgetAlternativeMaxOps = size_t(1) << 20;
+/// Up to this many input ops a compile with gadget wires or --allow-measurement also runs without
+/// them (see alternative_runs).
+constexpr size_t kOptionAlternativeMaxOps = size_t(1) << 20;
 
 }  // namespace
 
@@ -61,16 +62,23 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
     if (!o.passes.empty() || o.level < 2 || !o.target) return alts;
     const bool gadgets = o.allow_measurement && o.gadget_wires > 0;
     if (input_ops > kAlternativesMaxOps && !o.qubit_limit) {
-        // A large input compiles the run asked for only; with gadget wires, also the run without
-        // them: reduce-t keeps its gadget copy only for fewer T, but the passes after it (gate-cancel
-        // at -O3, fuse-1q) might still take more from the plain circuit. (Beyond kGadgetMaxOps
-        // reduce-t does not try gadgets at all.)
-        if (gadgets && input_ops <= kGadgetAlternativeMaxOps) {
-            CompileOptions a = o;
-            a.gadget_wires = 0;
-            a.passes_done = nullptr;
-            a.progress = nullptr;
-            alts.emplace_back("without --gadget-wires", std::move(a));
+        // A large input compiles the run asked for and, so that an option never makes the result
+        // worse, the runs without each option that can: with gadget wires, the run without them
+        // (reduce-t keeps its gadget copy only for fewer T, but the passes after it, gate-cancel at
+        // -O3 and fuse-1q, might still take more from the plain circuit; beyond kGadgetMaxOps
+        // reduce-t does not try gadgets at all); with --allow-measurement, the run without it (a
+        // measured erase can stop a cancellation or a fold the unitary form allows).
+        if (input_ops <= kOptionAlternativeMaxOps) {
+            auto add = [&](const char* why, bool measurement) {
+                CompileOptions a = o;
+                a.gadget_wires = 0;
+                a.allow_measurement = measurement;
+                a.passes_done = nullptr;
+                a.progress = nullptr;
+                alts.emplace_back(why, std::move(a));
+            };
+            if (gadgets) add("without --gadget-wires", true);
+            if (o.allow_measurement) add("without --allow-measurement", false);
         }
         return alts;
     }

@@ -71,8 +71,8 @@ def main():
     with tempfile.TemporaryDirectory() as tmp:
         for name, (decl, call, *widths) in ROUTINES.items():
             for n in (widths[0] if widths else WIDTHS):
-                # the lookup's table: 2^n entries of 8 bits, a fixed pattern
-                table = "[" + ", ".join(str((i * 37 + 11) % 256) for i in range(1 << n)) + "]"
+                # the lookup's table: 2^n entries of 8 bits, a fixed pattern (built only for it)
+                table = "[" + ", ".join(str((i * 37 + 11) % 256) for i in range(1 << n)) + "]" if "{table}" in call else ""
                 fields = {"n": n, "k": (1 << n) - 3, "N": (1 << n) - 1, "poly": POLY.get(n, 0), "table": table, "n2": 2 * n}
                 prog = pathlib.Path(tmp) / "p.wq"
                 prog.write_text('use "arith"\n' + decl.format(**fields) + "\n" + call.format(**fields) + "\n")

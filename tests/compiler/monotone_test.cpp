@@ -153,12 +153,19 @@ TEST_CASE("--gadget-wires never raises T, and large inputs also compile without 
     o.allow_measurement = true;
     o.gadget_wires = 8;
     const auto large = compiler::alternative_runs(o, 5000);
-    REQUIRE(large.size() == 1);
+    REQUIRE(large.size() == 2);
     CHECK(large[0].first == "without --gadget-wires");
     CHECK(large[0].second.gadget_wires == 0);
     CHECK(large[0].second.allow_measurement);
+    CHECK(large[1].first == "without --allow-measurement");
+    CHECK(!large[1].second.allow_measurement);
     o.gadget_wires = 0;
+    const auto measured = compiler::alternative_runs(o, 5000);
+    REQUIRE(measured.size() == 1);
+    CHECK(measured[0].first == "without --allow-measurement");
+    o.allow_measurement = false;
     CHECK(compiler::alternative_runs(o, 5000).empty());
+    CHECK(compiler::alternative_runs(o, 1u << 21).empty());  // past 2^20 ops: the run asked for only
     // Small inputs: T with gadget wires at most T without them, on random programs.
     std::mt19937_64 rng(1923);
     test::RandomCircuitOptions ro;
@@ -182,4 +189,21 @@ TEST_CASE("--gadget-wires never raises T, and large inputs also compile without 
             CHECK(ir::count_resources(gad.circuit).t_count <= ir::count_resources(plain.circuit).t_count);
         }
     }
+}
+
+TEST_CASE("a large input: --allow-measurement never raises T (the 16-bit square of the library)") {
+    // 2800 ops, past the small-input alternatives: the run without measurement is still compared.
+    const ir::Circuit c = load("use \"arith\"\nqubit a[16], p[32]\nsquare(a, p)\n");
+    REQUIRE(c.ops.size() > 2000);
+    compiler::CompileOptions o;
+    o.target = ir::Target::CliffordT;
+    o.check = false;
+    const compiler::CompileResult plain = compiler::compile(c, o);
+    o.allow_measurement = true;
+    const compiler::CompileResult measured = compiler::compile(c, o);
+    REQUIRE(plain.status == compiler::CompileStatus::Ok);
+    REQUIRE(measured.status == compiler::CompileStatus::Ok);
+    MESSAGE("square 16: T " << ir::count_resources(plain.circuit).t_count << " without measurement, "
+                            << ir::count_resources(measured.circuit).t_count << " with (kept: " << measured.kept_run << ")");
+    CHECK(ir::count_resources(measured.circuit).t_count <= ir::count_resources(plain.circuit).t_count);
 }
