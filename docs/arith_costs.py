@@ -27,6 +27,7 @@ ROUTINES = {
     "equals_const (k = 2^n - 3)": ("qubit a[{n}], f", "equals_const(a, {k}, f)"),
     "mul (n x n -> n bits)": ("qubit a[{n}], b[{n}], p[{n}]", "mul(a, b, p)"),
     "square (n -> 2n bits)": ("qubit a[{n}], p[{n2}]", "square(a, p)"),
+    "mod_add (N = 2^n - 1)": ("qubit a[{n}], b[{n}]", "mod_add(a, b, {N})", [4, 8, 16]),
     "mod_mul_const (x: 4 bits, N = 2^n - 1, k = 5)": ("qubit x[4], out[{n}]", "mod_mul_const(x, out, 5, {N})", [4, 8, 16]),
     "mod_add_const (N = 2^n - 1, k = 5)": ("qubit b[{n}]", "mod_add_const(b, 5, {N})"),
     "gf2_mul (trinomial / pentanomial)": ("qubit a[{n}], b[{n}], c[{n}]", "gf2_mul(a, b, c, {poly})"),
