@@ -70,6 +70,11 @@ std::string show(const File& f, const SymbolTable& s, uint32_t e) {
     case ExprKind::Le: return bin("<=");
     case ExprKind::Gt: return bin(">");
     case ExprKind::Ge: return bin(">=");
+    case ExprKind::Table: {
+        std::string t = "[";
+        for (uint32_t entry : f.tables[size_t(x.ival)]) t += (t.size() > 1 ? ", " : "") + show(f, s, entry);
+        return t + "]";
+    }
     }
     return "?";
 }
@@ -104,6 +109,19 @@ TEST_CASE("expression precedence: | < ^ < & < + - < * / % < unary") {
     CHECK(show(f, p->syms, f.stmts[0].expr) == "(a|(b^(c&!d)))");
     CHECK(show(f, p->syms, f.stmts[1].expr) == "((-1+((2*3)%4))-(n/2))");
     CHECK(show(f, p->syms, f.stmts[2].args[0]) == "(-pi/8)");
+}
+
+TEST_CASE("table literals: entries are expressions, may span lines, may be empty") {
+    auto p = parse("let t = [1, 2 + 3, -k]\nlet u = [\n  4,\n  5\n]\nlet e = []\nroutine f(int w[], q) { x q }\n");
+    const File& f = p->file;
+    CHECK(show(f, p->syms, f.stmts[0].expr) == "[1, (2+3), -k]");
+    CHECK(show(f, p->syms, f.stmts[1].expr) == "[4, 5]");
+    CHECK(show(f, p->syms, f.stmts[2].expr) == "[]");
+    REQUIRE(f.routines.size() == 1);
+    CHECK(f.routines[0].params[0].kind == ParamKind::IntTable);
+    CHECK(f.routines[0].params[1].kind == ParamKind::Qubit);
+    CHECK(error_of("let t = [1 2]\n") == "1:12: expected ',' or ']' in the table, found '2'");
+    CHECK(error_of("routine f(angle a[]) { }\n") == "1:18: expected ',' or ')' (angle parameters take no '[]'), found '['");
 }
 
 TEST_CASE("binary operators associate to the left") {
