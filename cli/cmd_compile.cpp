@@ -49,6 +49,7 @@ struct CompileArgs {
     std::optional<uint32_t> qubit_limit;
     bool quiet = false;
     bool cost_by_line = false;
+    bool cost_in_routines = false;
     std::vector<std::string> include_dirs;
     std::vector<std::string> roles;  // --role NAME=ROLE, as written
 };
@@ -147,7 +148,8 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.time_passes = a.time_passes;
     o.check = !a.no_check;
     o.include_dirs = a.include_dirs;
-    o.cost_by_line = a.cost_by_line;
+    o.cost_by_line = a.cost_by_line || a.cost_in_routines;
+    o.cost_in_routines = a.cost_in_routines;
     for (const std::string& r : a.roles) o.register_roles.push_back(parse_role(r));
     return o;
 }
@@ -259,7 +261,7 @@ int compile_one(const CompileArgs& a, const Job& job, bool show_progress, std::o
             err << fmt::format("{}: {} qubits, {}, two-qubit {}, depth {}{}; {}\n", job.input, res.qubits, cost,
                                res.two_qubit_count, res.depth, kept, verdict);
         }
-        if (a.cost_by_line) err << cost_table(r, sm);
+        if (a.cost_by_line || a.cost_in_routines) err << cost_table(r, sm);
         return kOk;
     }, err);
 }
@@ -430,6 +432,9 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_flag("--cost-by-line", args->cost_by_line,
                   "print the output's T, two-qubit gates, rotations and qubits by source line, largest first (a "
                   "routine call's cost at the call's line)");
+    cmd->add_flag("--cost-in-routines", args->cost_in_routines,
+                  "--cost-by-line with each op's cost at the line that wrote it inside its routine (library files "
+                  "too), not at the outermost call");
     cmd->add_flag("-q,--quiet", args->quiet, "no progress indicator");
     cmd->add_option("-I,--include", args->include_dirs, "extra folder searched by `use`");
     cmd->callback([args, target, &exit_code]() {

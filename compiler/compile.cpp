@@ -421,7 +421,7 @@ CompileResult compile(ir::Circuit c, const CompileOptions& o) {
 CompileResult compile_file(const std::string& path, const CompileOptions& o, frontend::SourceManager& sm) {
     frontend::LoadOptions lo;
     lo.include_dirs = o.include_dirs;
-    lo.locate_at_call_site = o.cost_by_line;
+    lo.locate_at_call_site = o.cost_by_line && !o.cost_in_routines;
     ir::Circuit c = frontend::load_file(path, sm, lo);
     if (frontend::format_for_path(path) != frontend::InputFormat::Wq || alternative_runs(o, c.ops.size()).empty())
         return compile(std::move(c), o);

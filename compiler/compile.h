@@ -65,6 +65,9 @@ struct CompileOptions {
     /// Sum the output's cost by source line (CompileResult::line_costs, the report's "cost_by_line");
     /// compile_file then locates what an outermost routine call makes at the call.
     bool cost_by_line = false;
+    /// With cost_by_line: each op's cost stays at the line that wrote it, inside its routine (in a
+    /// `use` file too), instead of moving to the outermost call (the per-routine view).
+    bool cost_in_routines = false;
     /// Roles declared for registers of the input, by name (`--role NAME=ROLE`): an OpenQASM file
     /// cannot say which wires start clean. Set on the input before anything else, so a declared
     /// `ancilla` is held to its contract like one declared in a .wq program; a name that is not a

@@ -6,6 +6,8 @@
 // with tests/support/dense_unitary.h, which shares no code with the compiler.
 #include <doctest/doctest.h>
 
+#include <map>
+
 #include <algorithm>
 #include <filesystem>
 #include <fstream>
@@ -177,6 +179,22 @@ TEST_CASE("cost by source line: a routine call's cost at the call, columns addin
     CHECK(r.line_costs[1].line == 6);
     CHECK(r.line_costs[1].t_count == 1);
     CHECK(r.report["cost_by_line"][0]["line"] == 7);
+    // The per-routine view: the routine's T gates stay at their own lines 2 and 3, the call gets none.
+    o.cost_in_routines = true;
+    frontend::SourceManager sm2;
+    const compiler::CompileResult in = compiler::compile_file(path, o, sm2);
+    REQUIRE(in.status == compiler::CompileStatus::Ok);
+    std::map<uint32_t, uint64_t> t_at;
+    uint64_t t_sum = 0;
+    for (const lowering::LineCost& row : in.line_costs) {
+        t_at[row.line] += row.t_count;
+        t_sum += row.t_count;
+    }
+    CHECK(t_sum == ir::count_resources(in.circuit).t_count);
+    CHECK(t_at[2] == 1);
+    CHECK(t_at[3] == 1);
+    CHECK(t_at[6] == 1);
+    CHECK(t_at[7] == 0);
     std::filesystem::remove_all(dir);
 }
 
