@@ -4,11 +4,13 @@
 #include <algorithm>
 #include <cmath>
 #include <complex>
+#include <optional>
 #include <random>
 #include <string>
 #include <unordered_map>
 #include <unordered_set>
 
+#include "rules/match.h"
 #include "rulegen/prove.h"
 
 namespace whittle::rulegen {
@@ -154,7 +156,7 @@ public:
     }
     Print operator()(const Seq& s) const {
         Print p;
-        p.v = rules::seq_unitary(s, wires_, values_) * in_;
+        p.v = rules::seq_apply(s, wires_, values_, in_);
         p.scalar = std::abs(probe_.dot(p.v));
         return p;
     }
@@ -201,6 +203,45 @@ bool reordering(const Seq& lhs, const Seq& rhs) {
     return a == b;
 }
 
+// True when `a` uses a parameter that `b` does not (a rule b = a could not be applied from b: the
+// parameter would be free).
+bool uses_more_params(const Seq& a, const Seq& b) {
+    std::array<bool, kMaxParams> in_a{}, in_b{};
+    for (const auto& [s, used] : {std::pair{&a, &in_a}, std::pair{&b, &in_b}})
+        for (const Gate& g : *s)
+            for (const AngleForm& f : g.a)
+                for (int j = 0; j < kMaxParams; ++j) (*used)[j] = (*used)[j] || f.coef[j] != 0;
+    for (int j = 0; j < kMaxParams; ++j)
+        if (in_a[j] && !in_b[j]) return true;
+    return false;
+}
+
+// True when a kept rule of the same length, its angles substituted, is `r` (iswap; rz(a+b) from
+// iswap; rz(a)).
+bool instance_of_kept(const rules::Rule& r, const std::vector<rules::Rule>& kept) {
+    for (const rules::Rule& k : kept)
+        if (k.lhs.size() == r.lhs.size() && k.rhs.size() == r.rhs.size())
+            if (std::optional<Seq> rhs = rules::match_window(k.lhs, k.rhs, r.lhs, 0); rhs && *rhs == r.rhs) return true;
+    return false;
+}
+
+// Rewrites `s` with the shortening rules until none applies (each step removes a gate).
+Seq shortest_form(Seq s, const std::vector<const rules::Rule*>& shortening) {
+    for (bool changed = true; changed;) {
+        changed = false;
+        for (size_t at = 0; at < s.size() && !changed; ++at)
+            for (const rules::Rule* r : shortening) {
+                std::optional<Seq> rhs = rules::match_window(r->lhs, r->rhs, s, at);
+                if (!rhs) continue;
+                s.erase(s.begin() + long(at), s.begin() + long(at + r->lhs.size()));
+                s.insert(s.begin() + long(at), rhs->begin(), rhs->end());
+                changed = true;
+                break;
+            }
+    }
+    return s;
+}
+
 }  // namespace
 
 rules::Library derive_library(const rules::GateSet& set, DeriveStats* stats) {
@@ -227,10 +268,29 @@ rules::Library derive_library(const rules::GateSet& set, DeriveStats* stats) {
         }
         return -1;
     };
+    // A new representative also stands for its wire renamings: the canonical sequences never hold
+    // them, so without them a sequence equal to a renamed short one would find no class (or a long
+    // representative) and its rule would be missed.
+    std::vector<std::array<uint8_t, 8>> renamings;
+    {
+        std::array<uint8_t, 8> perm{};
+        for (int w = 0; w < 8; ++w) perm[w] = uint8_t(w);
+        do renamings.push_back(perm);
+        while (std::next_permutation(perm.begin(), perm.begin() + set.wires));
+    }
     auto add_class = [&](const Seq& s, Print p) {
-        buckets[int64_t(std::floor(p.scalar / kBucket))].push_back(classes.size());
         reps.insert(key(s));
-        classes.push_back({s, std::move(p)});
+        for (size_t k = 0; k < renamings.size(); ++k) {
+            Seq renamed = s;
+            for (Gate& g : renamed) {
+                for (int i = 0; i < arity(g); ++i) g.w[i] = renamings[k][g.w[i]];
+                if (rules::gate_info(g.name).symmetric && g.w[0] > g.w[1]) std::swap(g.w[0], g.w[1]);
+            }
+            Print q = k == 0 ? p : fp(renamed);
+            if (k > 0 && find_class(q) >= 0) continue;
+            buckets[int64_t(std::floor(q.scalar / kBucket))].push_back(classes.size());
+            classes.push_back({std::move(renamed), std::move(q)});
+        }
     };
     add_class({}, fp({}));
 
@@ -257,7 +317,7 @@ rules::Library derive_library(const rules::GateSet& set, DeriveStats* stats) {
                 ++st.candidates;
                 const Seq& rep = classes[size_t(c)].rep;
                 if ((!rep.empty() && (rep.front() == s.front() || rep.back() == s.back())) ||
-                    splits(s, rep, set.wires) || reordering(s, rep)) {
+                    splits(s, rep, set.wires) || reordering(s, rep) || uses_more_params(rep, s)) {
                     ++st.implied;
                     continue;
                 }
@@ -270,7 +330,15 @@ rules::Library derive_library(const rules::GateSet& set, DeriveStats* stats) {
 
     rules::Library lib;
     lib.set = set;
+    std::vector<const rules::Rule*> shortening;
+    lib.rules.reserve(candidates.size());
     for (rules::Rule& r : candidates) {
+        // Implied by the rules kept so far (with their angles substituted): both sides shorten to
+        // the same sequence.
+        if (shortest_form(r.lhs, shortening) == shortest_form(r.rhs, shortening) || instance_of_kept(r, lib.rules)) {
+            ++st.implied;
+            continue;
+        }
         const ProofResult proof = prove_rule(r, set);
         if (!proof.proved) {
             ++st.unproved;
@@ -278,6 +346,7 @@ rules::Library derive_library(const rules::GateSet& set, DeriveStats* stats) {
         }
         r.points = proof.points;
         lib.rules.push_back(std::move(r));
+        if (lib.rules.back().rhs.size() < lib.rules.back().lhs.size()) shortening.push_back(&lib.rules.back());
     }
     st.rules = lib.rules.size();
     return lib;

@@ -10,10 +10,13 @@ namespace whittle::rulegen {
 
 struct DeriveStats {
     size_t sequences = 0;   ///< canonical sequences fingerprinted
-    size_t classes = 0;     ///< distinct fingerprints (representatives)
+    size_t classes = 0;     ///< distinct fingerprints (representatives and their wire renamings)
     size_t candidates = 0;  ///< sequences equal to an earlier representative
     /// Candidates dropped as implied by smaller rules: the sides share a first or last gate, fall
-    /// apart into identities on disjoint wires, or only reorder the same gates (commutations).
+    /// apart into identities on disjoint wires, only reorder the same gates (commutations), or
+    /// shorten to one sequence by the shorter rules kept before them (angles substituted), are a
+    /// kept rule with its angles substituted; and
+    /// candidates whose representative has a parameter the sequence lacks.
     size_t implied = 0;
     size_t unproved = 0;    ///< candidates the exact proof did not confirm (fingerprint collisions or undecided)
     size_t rules = 0;

@@ -142,10 +142,8 @@ Angle form_value(const AngleForm& f, const std::array<Angle, kMaxParams>& values
     return out;
 }
 
-ir::Op to_op(const Gate& g, const std::array<Angle, kMaxParams>& values) {
-    const uint32_t a = g.w[0], b = g.w[1];
-    const Angle v0 = form_value(g.a[0], values);
-    switch (g.name) {
+ir::Op make_op(GateName name, uint32_t a, uint32_t b, Angle v0, Angle v1) {
+    switch (name) {
     case GateName::X: return ir::Op::x(a);
     case GateName::SX: return ir::Op::one(OpKind::SX, a);
     case GateName::RZ: return ir::Op::one(OpKind::RZ, a, v0);
@@ -157,7 +155,7 @@ ir::Op to_op(const Gate& g, const std::array<Angle, kMaxParams>& values) {
     case GateName::Tdg: return ir::Op::phase(Angle::pi_times(-1, 4), {Lit::pos(a)});
     case GateName::R: {
         ir::Op op = ir::Op::one(OpKind::R, a, v0);
-        op.set_phi(form_value(g.a[1], values));
+        op.set_phi(v1);
         return op;
     }
     case GateName::CX: return ir::Op::x(b, {Lit::pos(a)});
@@ -169,9 +167,17 @@ ir::Op to_op(const Gate& g, const std::array<Angle, kMaxParams>& values) {
     return {};
 }
 
+ir::Op to_op(const Gate& g, const std::array<Angle, kMaxParams>& values) {
+    return make_op(g.name, g.w[0], g.w[1], form_value(g.a[0], values), form_value(g.a[1], values));
+}
+
 Eigen::MatrixXcd seq_unitary(const Seq& s, int wires, const std::array<double, kMaxParams>& values) {
     const Eigen::Index dim = Eigen::Index(1) << wires;
-    Eigen::MatrixXcd u = Eigen::MatrixXcd::Identity(dim, dim);
+    return seq_apply(s, wires, values, Eigen::MatrixXcd::Identity(dim, dim));
+}
+
+Eigen::MatrixXcd seq_apply(const Seq& s, int wires, const std::array<double, kMaxParams>& values, Eigen::MatrixXcd u) {
+    WHITTLE_ASSERT(u.rows() == (Eigen::Index(1) << wires) && "one row per basis state");
     std::array<Angle, kMaxParams> angles;
     for (int j = 0; j < kMaxParams; ++j) angles[j] = Angle::radians(values[j]);
     for (const Gate& g : s) {

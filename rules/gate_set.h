@@ -74,6 +74,8 @@ GateSet gate_set_for(ir::Target t);
 /// "cx+rz+sx.rules" and so on.
 std::string library_file_name(ir::Target t);
 
+/// The IR op of gate `name` on wires a (and b) with angle values v0 (and v1, R's phi).
+ir::Op make_op(GateName name, uint32_t a, uint32_t b, ir::Angle v0, ir::Angle v1);
 /// The IR op the gate stands for with parameter p_j set to values[j].
 ir::Op to_op(const Gate& g, const std::array<ir::Angle, kMaxParams>& values);
 /// The angle of a form at the given parameter values (exact when the values are).
@@ -82,5 +84,7 @@ ir::Angle form_value(const AngleForm& f, const std::array<ir::Angle, kMaxParams>
 /// The unitary of a sequence on `wires` wires (wire w is bit w of the basis index) at numeric
 /// parameter values; equal to the IR's reference matrices up to global phase.
 Eigen::MatrixXcd seq_unitary(const Seq& s, int wires, const std::array<double, kMaxParams>& values);
+/// The sequence applied to the columns of `m` (2^wires rows): seq_unitary(...) * m, faster for few columns.
+Eigen::MatrixXcd seq_apply(const Seq& s, int wires, const std::array<double, kMaxParams>& values, Eigen::MatrixXcd m);
 
 }  // namespace whittle::rules

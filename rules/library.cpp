@@ -157,6 +157,7 @@ Library parse_library(std::string_view text, const std::string& file_name) {
         const std::string key = r.word();
         if (key == "set") {
             if (have_set) r.fail("a second 'set' line");
+            r.skip_space();
             const size_t at = r.pos();
             const std::string target = r.word(true);
             try {
