@@ -13,7 +13,10 @@ using ir::Angle;
 using ir::Lit;
 using ir::OpKind;
 
-constexpr GateInfo kGates[] = {
+}  // namespace
+
+// In GateName order: gate_info indexes it by the name (tests/rules/library_test.cpp checks).
+const GateInfo kGateTable[14] = {
     {GateName::X, "x", 1, 0, false, {0, 0}},        {GateName::SX, "sx", 1, 0, false, {0, 0}},
     {GateName::RZ, "rz", 1, 1, false, {1, 0}},      {GateName::RX, "rx", 1, 1, false, {1, 0}},
     {GateName::H, "h", 1, 0, false, {0, 0}},        {GateName::S, "s", 1, 0, false, {0, 0}},
@@ -22,6 +25,8 @@ constexpr GateInfo kGates[] = {
     {GateName::CX, "cx", 2, 0, false, {0, 0}},      {GateName::CZ, "cz", 2, 0, true, {0, 0}},
     {GateName::ISwap, "iswap", 2, 0, true, {0, 0}}, {GateName::XX, "xx", 2, 1, true, {1, 0}},
 };
+
+namespace {
 
 // Applies a 2x2 matrix on wire w to the rows of u (u := (m on w) * u).
 void apply_1q(Eigen::MatrixXcd& u, const ir::Mat2& m, int w) {
@@ -75,15 +80,8 @@ std::string form_text(const AngleForm& f) {
     return out.empty() ? "0" : out;
 }
 
-const GateInfo& gate_info(GateName g) {
-    for (const GateInfo& info : kGates)
-        if (info.name == g) return info;
-    WHITTLE_ASSERT(false && "every gate name has an entry in kGates");
-    return kGates[0];
-}
-
 bool find_gate(std::string_view text, GateName& out) {
-    for (const GateInfo& info : kGates)
+    for (const GateInfo& info : kGateTable)
         if (text == info.text) {
             out = info.name;
             return true;

@@ -40,7 +40,9 @@ struct GateInfo {
     std::array<int, 2> half_degree;
 };
 
-const GateInfo& gate_info(GateName g);
+/// Every gate's entry, in GateName order.
+extern const GateInfo kGateTable[14];
+inline const GateInfo& gate_info(GateName g) { return kGateTable[size_t(g)]; }
 /// The gate named `text` in the library file, or false.
 bool find_gate(std::string_view text, GateName& out);
 

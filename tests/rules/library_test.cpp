@@ -31,6 +31,10 @@ bool equal_up_to_phase(const Eigen::MatrixXcd& a, const Eigen::MatrixXcd& b) {
 
 }  // namespace
 
+TEST_CASE("the gate table is in name order") {
+    for (size_t k = 0; k < 14; ++k) CHECK(size_t(rules::gate_info(rules::GateName(k)).name) == k);
+}
+
 TEST_CASE("a library prints and reads back to the same text") {
     const std::string text =
         "set xx+r wires 3 params 2 gates 3\n"
