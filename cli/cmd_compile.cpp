@@ -356,7 +356,7 @@ void add_compile_command(CLI::App& app, int& exit_code) {
                     "inner Hadamards by measured gadgets, kept only for fewer T (default 0)");
     cmd->add_option("--rewrite-effort", args->rewrite_effort,
                     "budget of the identity-library search at -O3 on the rotation targets (rewrite-search): 0 off, "
-                    "each unit 32 rounds, 4000 rewrites and 0.2 s, at most 100")
+                    "each unit 32 rounds, 4000 rewrites, 150000 match attempts (1 s cap), at most 100")
         ->capture_default_str();
     cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
     cmd->add_option("--total-error", args->total_error,

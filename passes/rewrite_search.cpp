@@ -29,6 +29,8 @@ using rules::Seq;
 /// Ops looked at past a match's first op, and how far a sweep steps back after a rewrite.
 constexpr size_t kWindow = 24;
 constexpr size_t kStepBack = 8;
+/// Match attempts per unit of effort (a count, so that the search is deterministic).
+constexpr int64_t kAttemptsPerEffort = 150000;
 
 /// Lexicographic cost: the metric's count first, then two-qubit gates, then gates.
 using Cost = std::tuple<int64_t, int64_t, int64_t>;
@@ -175,7 +177,8 @@ class Search {
 public:
     Search(const Loaded& lib, ir::Metric metric, uint32_t effort)
         : lib_(lib), metric_(metric), rewrites_left_(int64_t(4000) * effort),
-          deadline_(std::chrono::steady_clock::now() + std::chrono::milliseconds(200) * effort) {}
+          attempts_left_(int64_t(kAttemptsPerEffort) * effort),
+          deadline_(std::chrono::steady_clock::now() + std::chrono::milliseconds(1000) * effort) {}
 
     State make_state(const std::vector<ir::Op>& ops) const {
         State s;
@@ -187,7 +190,15 @@ public:
         return s;
     }
 
-    bool out_of_budget() const { return rewrites_left_ <= 0 || std::chrono::steady_clock::now() > deadline_; }
+    /// The rewrite and match-attempt budgets are counts (deterministic); the deadline is a safety
+    /// cap that a normal run does not reach.
+    bool out_of_budget() {
+        if (rewrites_left_ <= 0 || attempts_left_ <= 0) return true;
+        if (std::chrono::steady_clock::now() > deadline_) timed_out_ = true;
+        return timed_out_;
+    }
+    bool timed_out() const { return timed_out_; }
+    int64_t attempts() const { return attempts_done_; }
 
     /// Applies improving moves at anchors from `lo` until none applies up to `hi` (or the budget
     /// ends); a rewrite widens the range around itself.
@@ -255,7 +266,9 @@ private:
         return {std::get<0>(a) + std::get<0>(b), std::get<1>(a) + std::get<1>(b), std::get<2>(a) + std::get<2>(b)};
     }
 
-    std::optional<Match> try_match(const State& s, size_t i, const Move& mv) const {
+    std::optional<Match> try_match(const State& s, size_t i, const Move& mv) {
+        --attempts_left_;
+        ++attempts_done_;
         const Seq& side = *mv.from;
         std::vector<OpGate> gates = {*s.gates[i]};
         if (!rules::match_ops(side, {}, gates, true)) return std::nullopt;
@@ -329,6 +342,9 @@ private:
     ir::Metric metric_;
     int64_t rewrites_left_;
     int64_t rewrites_done_ = 0;
+    int64_t attempts_left_;
+    int64_t attempts_done_ = 0;
+    bool timed_out_ = false;
     std::chrono::steady_clock::time_point deadline_;
 };
 
@@ -364,6 +380,8 @@ PassResult rewrite_search(ir::Circuit& c, const PassOptions& opts) {
     out.ops = std::move(best.ops);
     const Cost before = circuit_cost(c, opts.optimize_for), after = circuit_cost(out, opts.optimize_for);
     r.count("search-rewrites", search.rewrites());
+    r.count("match-attempts", search.attempts());
+    if (search.timed_out()) r.notes.push_back("the search reached its time cap (1 s per unit of --rewrite-effort); the result may depend on the machine's speed");
     if (!(after < before) || std::get<0>(after) > std::get<0>(before)) return r;
     r.count("two-qubit-gates-removed", std::get<1>(before) - std::get<1>(after));
     r.count("gates-removed", std::get<2>(before) - std::get<2>(after));

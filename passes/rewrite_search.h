@@ -12,8 +12,9 @@ namespace whittle::passes {
 /// gates), then runs rounds that each start from the best circuit so far, apply a few rewrites
 /// that keep or raise the cost, and descend again (iterated local search); it keeps the best.
 /// Budget: `PassOptions::rewrite_effort` (0 = off) scales the rounds (32 per unit), the rewrites
-/// (4000 per unit) and the time (0.2 s per unit); the random choices use a fixed seed, so the
-/// result is deterministic while the time budget is not reached. The circuit is replaced only when
+/// (4000 per unit) and the match attempts (150000 per unit), with a time cap of 1 s per unit that a
+/// normal run does not reach (a note says when it did); the random choices use a fixed seed, so the
+/// result is deterministic. The circuit is replaced only when
 /// the result is strictly cheaper and not worse in the chosen metric (ir::count_resources). Rules
 /// hold up to global phase; each rewrite adds the phase between its two sides (from their
 /// unitaries, snapped to an exact angle where close) to `Circuit::global_phase`.
