@@ -44,6 +44,7 @@ struct CompileArgs {
     bool stats = false;
     uint32_t extra_ancillas = 0;
     uint32_t gadget_wires = 0;
+    uint32_t rewrite_effort = 1;
     double epsilon = 1e-10;
     std::optional<double> total_error;
     std::optional<uint32_t> qubit_limit;
@@ -139,6 +140,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.allow_measurement = a.allow_measurement;
     o.extra_ancillas = a.extra_ancillas;
     o.gadget_wires = a.gadget_wires;
+    o.rewrite_effort = a.rewrite_effort;
     o.epsilon = a.epsilon;
     o.total_error = a.total_error;
     o.qubit_limit = a.qubit_limit;
@@ -422,6 +424,10 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_option("--gadget-wires", args->gadget_wires,
                     "with --allow-measurement on clifford+t at -O2/-O3: fresh clean wires reduce-t may add to replace "
                     "inner Hadamards by measured gadgets, kept only for fewer T (default 0)");
+    cmd->add_option("--rewrite-effort", args->rewrite_effort,
+                    "budget of the identity-library search at -O3 on the rotation targets (rewrite-search): 0 off, "
+                    "each unit 32 rounds, 4000 rewrites, 150000 match attempts (1 s cap), at most 100")
+        ->capture_default_str();
     cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
     cmd->add_option("--total-error", args->total_error,
                     "error bound for the whole circuit (clifford+t), split evenly over the rotations it approximates; "

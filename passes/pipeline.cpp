@@ -98,6 +98,12 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     }
     add({"to-target", "fuse-1q"});
     if (*opts.target != ir::Target::Nct && *opts.target != ir::Target::CliffordT) add({"resynth-2q", "fuse-1q"});
+    // -O3 on the rotation targets with a library: the rule search after the KAK blocks (it finds
+    // the rewrites across three wires and across commuting gates that a two-wire block cannot
+    // see), and one-qubit fusion again for the runs its rewrites leave.
+    const bool has_library = *opts.target == ir::Target::CxRzSx || *opts.target == ir::Target::CzRxRz ||
+                             *opts.target == ir::Target::ISwapRzRx || *opts.target == ir::Target::XxR;
+    if (level >= 3 && has_library && opts.rewrite_effort > 0) add({"rewrite-search", "fuse-1q"});
     if (level >= 1) add({"drop-idle-wires"});
     return p;
 }

@@ -30,7 +30,9 @@ Hadamard gadgets (the output then has measurements and conditioned corrections o
 
 WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number of circuits (default
 80), WHITTLE_DIFF_T_CIRCUITS the number of T networks and of gadget networks and
-WHITTLE_DIFF_ZX_CIRCUITS that of phase networks (default half of that each); a failure prints the
+WHITTLE_DIFF_ZX_CIRCUITS that of phase networks and WHITTLE_DIFF_R_CIRCUITS that of the CNOT-ladder
+networks for rewrite-search (rule_program; compiled at every level of the rotation targets and at
+-O3 with `--optimize-for 2q --rewrite-effort 3`) (default half of that each); a failure prints the
 .wq input, the configuration and a command that reproduces it.
 """
 import math
@@ -49,6 +51,8 @@ SEED = int(os.environ.get("WHITTLE_DIFF_SEED", "1"))
 CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "80"))
 T_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_T_CIRCUITS", str(max(1, CIRCUITS // 2))))
 ZX_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_ZX_CIRCUITS", str(max(1, CIRCUITS // 2))))
+R_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_R_CIRCUITS", str(max(1, CIRCUITS // 2))))
+RULE_TARGETS = ["cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r"]
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
 STATES = 3  # random input states per check
@@ -398,6 +402,43 @@ def teleport_program(rng):
     return prog
 
 
+def rule_program(rng):
+    """For rewrite-search (the identity libraries, rules/library): CNOT ladders on 3-5 wires that
+    compute, reuse and undo parities (three-wire CNOT rules), Rz rotations by generic angles on
+    controls and targets (commuting with some CNOTs, not others: matches across commuting gates),
+    sqrt(X)-like H/S pairs and X gates between them, and CZs written as phases, so that after
+    lowering to a rotation target the search has rules to apply and rotations to carry through."""
+    n = rng.randint(3, 5)
+    prog = Program(n, 0, False)
+    data = list(range(n))
+    for _ in range(rng.randint(8, 24)):
+        r = rng.random()
+        if r < 0.4:  # a short ladder, sometimes undone in the other order
+            ws = pick(rng, data, rng.randint(2, min(3, n)))
+            pairs = [(ws[i], ws[i + 1]) for i in range(len(ws) - 1)]
+            for c, t in pairs:
+                prog.mcx(t, [(c, True)])
+            if rng.random() < 0.5:
+                for c, t in reversed(pairs):
+                    prog.mcx(t, [(c, True)])
+        elif r < 0.65:
+            w = rng.choice(data)
+            k = rng.choice([1, 3, 5, -1, -3, 7, 2, 11])
+            prog.lines.append(f"rz({k}*pi/12) {prog.name(w)}")
+            prog.ops.append(("u1", rz(k * math.pi / 12), w, []))
+        elif r < 0.75:
+            a, b = pick(rng, data, 2)
+            prog.lines.append(f"phase(pi) {prog.name(a)} & {prog.name(b)}")
+            prog.ops.append(("phase", math.pi, [(a, True), (b, True)]))
+        elif r < 0.85:
+            one_qubit_line(rng, prog, rng.choice(data), prog.ops, prog.lines)
+        else:
+            t = rng.choice(data)
+            c = rng.choice([w for w in data if w != t])
+            prog.mcx(t, [(c, True)])
+    return prog
+
+
 def random_program(rng, classical):
     """A random program; a classical one (X-type ops only) is one the nct target can take too."""
     n_data = rng.randint(4, 7)
@@ -743,7 +784,16 @@ def main():
             f.write(prog.text())
         progs.append((path, prog) + reference_states(prog, rng_np))
         g_paths.add(path)
+    r_paths = set()  # the rule networks: compiled for the rotation targets at -O3 with more search effort
+    for i in range(R_CIRCUITS):
+        prog = rule_program(rng)
+        path = os.path.join(tmp, f"r{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
+        r_paths.add(path)
     configs = [(t, o, False) for t in TARGETS for o in LEVELS] + [("clifford+t", o, True) for o in LEVELS]
+    configs += [(t, "-O3", "rules") for t in RULE_TARGETS]
     configs += [("clifford+t", o, "gadgets") for o in ("-O2", "-O3")]
     checked = failures = refused = gadget_outputs = 0
     all_progs = progs
@@ -751,12 +801,17 @@ def main():
         progs = [p for p in all_progs if p[1].classical] if target == "nct" else all_progs
         if meas == "gadgets":
             progs = [p for p in progs if p[0] in t_paths or p[0] in g_paths]
+        elif meas == "rules":
+            progs = [p for p in progs if p[0] in r_paths or p[0] not in t_paths | g_paths]
         else:
+            progs = [p for p in progs if p[0] not in r_paths or target in RULE_TARGETS]
             progs = [p for p in progs if p[0] not in g_paths]
             if not (target == "clifford+t" and level in ("-O2", "-O3") and not meas):
                 progs = [p for p in progs if p[0] not in t_paths]
-        flags = {False: "", True: " --allow-measurement", "gadgets": " --allow-measurement --gadget-wires 6"}[meas]
-        outdir = os.path.join(tmp, f"{target}{level}{'-m' if meas else ''}{'g' if meas == 'gadgets' else ''}".replace("+", "_"))
+        flags = {False: "", True: " --allow-measurement", "gadgets": " --allow-measurement --gadget-wires 6",
+                 "rules": " --optimize-for 2q --rewrite-effort 3"}[meas]
+        suffix = {False: "", True: "-m", "gadgets": "-mg", "rules": "-r"}[meas]
+        outdir = os.path.join(tmp, f"{target}{level}{suffix}".replace("+", "_"))
         os.mkdir(outdir)
         cmd = [WHITTLE, "compile", "-q", "-j", "2", "--target", target, level, "--emit", "qasm2", "-o", outdir]
         cmd += flags.split()
@@ -784,7 +839,8 @@ def main():
                 print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
     shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
     print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations, "
-          f"{T_CIRCUITS} T networks x 4, {ZX_CIRCUITS} phase networks x 4 and {T_CIRCUITS} gadget networks x 2 "
+          f"{T_CIRCUITS} T networks x 4, {ZX_CIRCUITS} phase networks x 4, {T_CIRCUITS} gadget networks x 2 "
+          f"and {R_CIRCUITS} rule networks (every level of the rotation targets, and -O3 with --rewrite-effort 3) "
           f"(clifford+t -O2, -O3, with and without --gadget-wires 6): "
           f"{checked} outputs checked by numpy ({gadget_outputs} with Hadamard gadgets kept), {failures} failures, "
           f"{refused} refused with a located reason (nct)")

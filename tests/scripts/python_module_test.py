@@ -61,6 +61,13 @@ check(isinstance(r["passes"], list) and "approximation_error_bound" in r, "repor
 check(r["input_resources"]["qubits"] == 4, "report input_resources")
 check(c.count()["ops"] == cli_ops, "compile() left the loaded circuit unchanged")
 
+# The rule search's effort reaches the compile: the report names it, and effort 0 leaves the pass out.
+for effort in (0, 2):
+    rr = c.compile(target="cx+rz+sx", level=3, optimize_for="2q", rewrite_effort=effort).count()
+    check(rr["options"]["rewrite_effort"] == effort, f"report options.rewrite_effort {effort}")
+    ran = any(p["name"] == "rewrite-search" for p in rr["passes"])
+    check(ran == (effort > 0), f"rewrite-search in the -O3 pipeline with effort {effort}")
+
 # OpenQASM 2.0 export, recounted by the independent reader; 3.0 export has its header.
 q2 = low.to_qasm(2)
 mine = recount(q2)
