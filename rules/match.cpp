@@ -8,14 +8,85 @@
 namespace whittle::rules {
 namespace {
 
-using Coefs = std::array<int, kMaxParams>;
+/// A parameter's value as a linear form over the matched sequence's own parameters.
+struct Coefs {
+    std::array<int, kMaxParams> c{};
+    Coefs operator-(const Coefs& o) const {
+        Coefs r = *this;
+        for (int k = 0; k < kMaxParams; ++k) r.c[k] -= o.c[k];
+        return r;
+    }
+    Coefs operator*(int f) const {
+        Coefs r = *this;
+        for (int& x : r.c) x *= f;
+        return r;
+    }
+    Coefs& operator+=(const Coefs& o) {
+        for (int k = 0; k < kMaxParams; ++k) c[k] += o.c[k];
+        return *this;
+    }
+    bool is_zero() const { return c == std::array<int, kMaxParams>{}; }
+};
+
+Coefs coefs_of(const AngleForm& f) {
+    Coefs r;
+    for (int k = 0; k < kMaxParams; ++k) r.c[k] = f.coef[k];
+    return r;
+}
 
 bool to_form(const Coefs& c, AngleForm& out) {
     for (int j = 0; j < kMaxParams; ++j) {
-        if (std::abs(c[j]) > 100) return false;
-        out.coef[j] = int8_t(c[j]);
+        if (std::abs(c.c[j]) > 100) return false;
+        out.coef[j] = int8_t(c.c[j]);
     }
     return true;
+}
+
+template <class V>
+using Values = std::array<std::optional<V>, kMaxParams>;
+
+enum class Solved { Contradiction, Complete, Open };
+
+/// Solves the parameters p_j of `side`'s first `count` gates from the values their angle slots
+/// take (slot s of gate i reads sum_j coef_j p_j and takes slot_value(i, s)), one unknown at a time:
+/// a slot with a single unknown of coefficient +-1 fixes it. V is the value type (an exact angle,
+/// or a linear form over the sequence's parameters); V - V * int, V * int and is_zero() are used.
+/// Open: some slot kept several unknowns when no slot could fix one more.
+template <class V, class SlotValue>
+Solved solve_parameters(const Seq& side, size_t count, SlotValue slot_value, Values<V>& value) {
+    for (bool progress = true; progress;) {
+        progress = false;
+        bool open = false;
+        for (size_t i = 0; i < count; ++i) {
+            const GateInfo& info = gate_info(side[i].name);
+            for (int slot = 0; slot < info.slots; ++slot) {
+                const AngleForm& rf = side[i].a[slot];
+                V rest = slot_value(i, slot);
+                int unknown = -1, unknowns = 0;
+                for (int j = 0; j < kMaxParams; ++j) {
+                    if (rf.coef[j] == 0) continue;
+                    if (!value[j]) {
+                        unknown = j;
+                        ++unknowns;
+                        continue;
+                    }
+                    rest = rest - *value[j] * rf.coef[j];
+                }
+                if (unknowns == 0) {
+                    if (!rest.is_zero()) return Solved::Contradiction;
+                    continue;
+                }
+                if (unknowns > 1 || std::abs(rf.coef[unknown]) != 1) {
+                    open = true;
+                    continue;
+                }
+                value[unknown] = rest * rf.coef[unknown];  // coefficient +-1: its own inverse
+                progress = true;
+            }
+        }
+        if (!progress && open) return Solved::Open;
+    }
+    return Solved::Complete;
 }
 
 }  // namespace
@@ -49,43 +120,10 @@ std::optional<Seq> match_window(const Seq& side, const Seq& other, const Seq& se
         if (!bind(s.w) && !(info.symmetric && bind({s.w[1], s.w[0]}))) return std::nullopt;
     }
     // Parameters: p_j = sum_k value[j][k] * q_k over the sequence's parameters q.
-    std::array<std::optional<Coefs>, kMaxParams> value;
-    for (bool progress = true; progress;) {
-        progress = false;
-        bool open = false;
-        for (size_t i = 0; i < side.size(); ++i) {
-            const GateInfo& info = gate_info(side[i].name);
-            for (int slot = 0; slot < info.slots; ++slot) {
-                const AngleForm& rf = side[i].a[slot];
-                const AngleForm& sf = seq[at + i].a[slot];
-                int unknown = -1, unknowns = 0;
-                Coefs rest{};
-                for (int k = 0; k < kMaxParams; ++k) rest[k] = sf.coef[k];
-                for (int j = 0; j < kMaxParams; ++j) {
-                    if (rf.coef[j] == 0) continue;
-                    if (!value[j]) {
-                        unknown = j;
-                        ++unknowns;
-                        continue;
-                    }
-                    for (int k = 0; k < kMaxParams; ++k) rest[k] -= rf.coef[j] * (*value[j])[k];
-                }
-                if (unknowns == 0) {
-                    if (rest != Coefs{}) return std::nullopt;
-                    continue;
-                }
-                if (unknowns > 1) {
-                    open = true;
-                    continue;
-                }
-                Coefs v{};
-                for (int k = 0; k < kMaxParams; ++k) v[k] = rest[k] * rf.coef[unknown];  // coefficient is +-1
-                value[unknown] = v;
-                progress = true;
-            }
-        }
-        if (!progress && open) return std::nullopt;
-    }
+    Values<Coefs> value;
+    if (solve_parameters<Coefs>(side, side.size(), [&](size_t i, int slot) { return coefs_of(seq[at + i].a[slot]); },
+                                value) != Solved::Complete)
+        return std::nullopt;
     Seq out;
     out.reserve(other.size());
     for (const Gate& r : other) {
@@ -97,11 +135,11 @@ std::optional<Seq> match_window(const Seq& side, const Seq& other, const Seq& se
         }
         if (info.symmetric && g.w[0] > g.w[1]) std::swap(g.w[0], g.w[1]);
         for (int slot = 0; slot < info.slots; ++slot) {
-            Coefs c{};
+            Coefs c;
             for (int j = 0; j < kMaxParams; ++j) {
                 if (r.a[slot].coef[j] == 0) continue;
                 if (!value[j]) return std::nullopt;
-                for (int k = 0; k < kMaxParams; ++k) c[k] += r.a[slot].coef[j] * (*value[j])[k];
+                c += *value[j] * r.a[slot].coef[j];
             }
             if (!to_form(c, g.a[slot])) return std::nullopt;
         }
@@ -182,39 +220,10 @@ std::optional<std::vector<ir::Op>> match_ops(const Seq& side, const Seq& other, 
         };
         if (!bind(ops[i].w[0], ops[i].w[1]) && !(info.symmetric && bind(ops[i].w[1], ops[i].w[0]))) return std::nullopt;
     }
-    std::array<std::optional<ir::Angle>, kMaxParams> value;
-    for (bool progress = true; progress;) {
-        progress = false;
-        bool open = false;
-        for (size_t i = 0; i < ops.size(); ++i) {
-            const GateInfo& info = gate_info(side[i].name);
-            for (int slot = 0; slot < info.slots; ++slot) {
-                const AngleForm& rf = side[i].a[slot];
-                ir::Angle rest = ops[i].a[slot];
-                int unknown = -1, unknowns = 0;
-                for (int j = 0; j < kMaxParams; ++j) {
-                    if (rf.coef[j] == 0) continue;
-                    if (!value[j]) {
-                        unknown = j;
-                        ++unknowns;
-                        continue;
-                    }
-                    rest = rest - *value[j] * rf.coef[j];
-                }
-                if (unknowns == 0) {
-                    if (!rest.is_zero()) return std::nullopt;
-                    continue;
-                }
-                if (unknowns > 1 || std::abs(rf.coef[unknown]) != 1) {
-                    open = true;
-                    continue;
-                }
-                value[unknown] = rest * rf.coef[unknown];
-                progress = true;
-            }
-        }
-        if (!progress && open && !partial) return std::nullopt;
-    }
+    Values<ir::Angle> value;
+    const Solved solved =
+        solve_parameters<ir::Angle>(side, ops.size(), [&](size_t i, int slot) { return ops[i].a[slot]; }, value);
+    if (solved == Solved::Contradiction || (solved == Solved::Open && !partial)) return std::nullopt;
     std::vector<ir::Op> out;
     if (partial) return out;
     for (const Gate& r : other) {
