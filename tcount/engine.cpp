@@ -12,6 +12,7 @@
 #include "tcount/hadamard_frames.h"
 #include "tcount/parity_network.h"
 #include "tcount/phase_polynomial.h"
+#include "tcount/tohpe.h"
 
 namespace whittle::tcount {
 namespace {
@@ -334,6 +335,20 @@ std::optional<Rebuilt> rebuild_region(const ir::Circuit& c, const std::vector<ui
             if (tr.budget_exhausted) ++stats.todd_out_of_budget;
             stats.todd_steps += size_t(tr.steps);
             cols = std::move(tr.columns);
+            // TOHPE (tohpe.h) from the same start with the same cap; the shorter list is kept, so
+            // the region never gets more T than TODD alone gives it.
+            if (settings.run_tohpe && work_left > 0) {
+                TohpeSettings hs = settings.tohpe;
+                hs.work_budget = std::min(settings.todd.work_budget, work_left);
+                ToddResult hr = tohpe_reduce(odd, width, hs);
+                work_left -= std::min(work_left, hr.work);
+                ++stats.tohpe_runs;
+                stats.tohpe_work += hr.work;
+                if (hr.columns.size() < cols.size()) {
+                    ++stats.tohpe_wins;
+                    cols = std::move(hr.columns);
+                }
+            }
         }
     }
     // Each column is one T gate. When that is all the region has already, only fewer CNOTs could
