@@ -29,8 +29,8 @@ struct EngineSettings {
     /// optimizes for two-qubit gates or depth), only when its CNOTs do not grow.
     bool cnots_may_grow = true;
     ToddSettings todd;                ///< effort per region
-    /// TOHPE (tohpe.h) also runs on each region TODD runs on, with TODD's per-region cap (and what
-    /// is left of the circuit's); the shorter column list is kept.
+    /// TOHPE (tohpe.h) also runs on each region TODD runs on, with TODD's per-region cap and a
+    /// circuit-wide cap of its own (total_work_budget again); the shorter column list is kept.
     bool run_tohpe = true;
     TohpeSettings tohpe;              ///< its plateau moves (the budget is set per region)
     uint64_t total_work_budget = uint64_t(16) << 30;  ///< effort for the whole circuit, then regions are left alone
