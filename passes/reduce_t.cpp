@@ -27,6 +27,7 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
     const uint64_t ops = c.ops.size();
     s.todd.work_budget = uint64_t(1) << 32;
     s.total_work_budget = std::max<uint64_t>(uint64_t(1) << 31, 256 * ops);
+    s.tohpe.max_kicks = 16;  // plateau moves after TOHPE's first descent (-O3 only)
     if (opts.level <= 2) {
         // -O2 keeps its near-linear time: smaller regions, small effort caps, and regions are
         // rebuilt only for fewer T (a rebuild for CNOTs alone leaves gate pairs at its borders that
@@ -40,6 +41,7 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
         s.max_cnot_only_terms = 0;
         s.max_full_width = 24;
         s.max_full_terms = 192;
+        s.run_tohpe = false;  // -O3 only: it more than doubles the reduction's time on GF(2^5)
     }
     s.cnots_may_grow = opts.optimize_for == Metric::TCount;
     tcount::EngineStats st;
@@ -92,6 +94,11 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
         result.count("todd-runs", int64_t(st.todd_runs));
         result.count("todd-steps", int64_t(st.todd_steps));
         result.count("todd-work", int64_t(st.todd_work));
+    }
+    if (st.tohpe_runs) {
+        result.count("tohpe-runs", int64_t(st.tohpe_runs));
+        result.count("tohpe-wins", int64_t(st.tohpe_wins));
+        result.count("tohpe-work", int64_t(st.tohpe_work));
     }
     if (st.todd_out_of_budget) result.count("regions-at-effort-cap", int64_t(st.todd_out_of_budget));
     if (st.skipped_large) result.count("regions-too-large", int64_t(st.skipped_large));

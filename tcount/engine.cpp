@@ -12,6 +12,7 @@
 #include "tcount/hadamard_frames.h"
 #include "tcount/parity_network.h"
 #include "tcount/phase_polynomial.h"
+#include "tcount/tohpe.h"
 
 namespace whittle::tcount {
 namespace {
@@ -305,7 +306,8 @@ int64_t synthesize_on_skeleton(const ir::Circuit& c, const std::vector<uint32_t>
 /// The region's new circuit when it is better than the old one.
 std::optional<Rebuilt> rebuild_region(const ir::Circuit& c, const std::vector<uint32_t>& region,
                                       const std::vector<uint32_t>& var_wire, const std::vector<uint32_t>& var_of_wire,
-                                      const EngineSettings& settings, EngineStats& stats, uint64_t& work_left) {
+                                      const EngineSettings& settings, EngineStats& stats, uint64_t& work_left,
+                                      uint64_t& tohpe_left) {
     const uint32_t width = uint32_t(var_wire.size());
     auto var = [&](uint32_t w) { return var_of_wire[w]; };
     RegionBuilder builder(width);
@@ -334,6 +336,20 @@ std::optional<Rebuilt> rebuild_region(const ir::Circuit& c, const std::vector<ui
             if (tr.budget_exhausted) ++stats.todd_out_of_budget;
             stats.todd_steps += size_t(tr.steps);
             cols = std::move(tr.columns);
+            // TOHPE (tohpe.h) from the same start with the same cap; the shorter list is kept, so
+            // the region never gets more T than TODD alone gives it.
+            if (settings.run_tohpe && tohpe_left > 0) {
+                TohpeSettings hs = settings.tohpe;
+                hs.work_budget = std::min(settings.todd.work_budget, tohpe_left);
+                ToddResult hr = tohpe_reduce(odd, width, hs);
+                tohpe_left -= std::min(tohpe_left, hr.work);
+                ++stats.tohpe_runs;
+                stats.tohpe_work += hr.work;
+                if (hr.columns.size() < cols.size()) {
+                    ++stats.tohpe_wins;
+                    cols = std::move(hr.columns);
+                }
+            }
         }
     }
     // Each column is one T gate. When that is all the region has already, only fewer CNOTs could
@@ -438,6 +454,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
     std::vector<uint32_t> needed(nq + 1, 0);  // wire -> epoch at which it was marked
     uint32_t epoch = 0;
     uint64_t work_left = settings.total_work_budget;
+    uint64_t tohpe_left = settings.total_work_budget;  // its own, so TODD's regions keep theirs
     Pending pend;
     pend.total = c.ops.size();
     while (!pend.done()) {
@@ -499,7 +516,7 @@ bool reduce_t_count(ir::Circuit& c, const EngineSettings& settings, EngineStats&
         std::optional<Rebuilt> nr;
         if (region.size() >= 2) {
             ++stats.regions;
-            nr = rebuild_region(c, region, var_wire, var_of_wire, settings, stats, work_left);
+            nr = rebuild_region(c, region, var_wire, var_of_wire, settings, stats, work_left, tohpe_left);
         }
         after.clear();
         if (nr) {

@@ -6,6 +6,7 @@
 
 #include "ir/circuit.h"
 #include "tcount/todd.h"
+#include "tcount/tohpe.h"
 
 namespace whittle::tcount {
 
@@ -28,6 +29,10 @@ struct EngineSettings {
     /// optimizes for two-qubit gates or depth), only when its CNOTs do not grow.
     bool cnots_may_grow = true;
     ToddSettings todd;                ///< effort per region
+    /// TOHPE (tohpe.h) also runs on each region TODD runs on, with TODD's per-region cap and a
+    /// circuit-wide cap of its own (total_work_budget again); the shorter column list is kept.
+    bool run_tohpe = true;
+    TohpeSettings tohpe;              ///< its plateau moves (the budget is set per region)
     uint64_t total_work_budget = uint64_t(16) << 30;  ///< effort for the whole circuit, then regions are left alone
 };
 
@@ -42,6 +47,9 @@ struct EngineStats {
     size_t todd_runs = 0;          ///< regions the reduction ran on
     uint64_t todd_work = 0;        ///< its effort, in words of elimination
     size_t todd_out_of_budget = 0; ///< regions whose reduction stopped at the effort cap
+    size_t tohpe_runs = 0;         ///< regions TOHPE ran on
+    size_t tohpe_wins = 0;         ///< ... and gave fewer T than TODD
+    uint64_t tohpe_work = 0;       ///< its effort, in words of elimination
     size_t skipped_large = 0;      ///< regions too wide or with too many T terms for the reduction
 };
 

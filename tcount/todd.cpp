@@ -276,14 +276,18 @@ ToddResult todd_reduce(std::vector<uint64_t> cols, uint32_t n, const ToddSetting
 
 namespace whittle::tcount {
 
-std::vector<std::vector<uint8_t>> admissible_updates(const std::vector<uint64_t>& cols, uint32_t n, uint64_t z) {
-    uint64_t work = 0;
+std::vector<BitVec> admissible_basis(const std::vector<uint64_t>& cols, uint32_t n, uint64_t z, uint64_t& work) {
     TaggedEchelon image;
     std::vector<BitVec> k0;
     image_of_columns(cols, n, image, k0, work);
-    std::vector<std::vector<uint8_t>> out;
     Scratch scratch;
-    for (const BitVec& y : admissible(image, k0, z, n, cols.size(), scratch, work)) {
+    return admissible(image, k0, z, n, cols.size(), scratch, work);
+}
+
+std::vector<std::vector<uint8_t>> admissible_updates(const std::vector<uint64_t>& cols, uint32_t n, uint64_t z) {
+    uint64_t work = 0;
+    std::vector<std::vector<uint8_t>> out;
+    for (const BitVec& y : admissible_basis(cols, n, z, work)) {
         std::vector<uint8_t> v(cols.size());
         for (size_t j = 0; j < cols.size(); ++j) v[j] = y.get(j);
         out.push_back(std::move(v));

@@ -4,6 +4,8 @@
 #include <cstdint>
 #include <vector>
 
+#include "tcount/gf2.h"
+
 namespace whittle::tcount {
 
 struct ToddSettings {
@@ -30,6 +32,9 @@ ToddResult todd_reduce(std::vector<uint64_t> columns, uint32_t n, const ToddSett
 /// A basis of the updates y for which A + z y^T (with the column z appended when |y| is odd) has
 /// the signature tensor of A (y[j] = 1: column j gets z added). For tests.
 std::vector<std::vector<uint8_t>> admissible_updates(const std::vector<uint64_t>& columns, uint32_t n, uint64_t z);
+
+/// The same basis as BitVecs over the m columns, with the elimination's words added to `work`.
+std::vector<BitVec> admissible_basis(const std::vector<uint64_t>& columns, uint32_t n, uint64_t z, uint64_t& work);
 
 /// Removes zero columns and equal columns in pairs; sorts the rest.
 void make_proper(std::vector<uint64_t>& columns);

@@ -27,9 +27,10 @@ ir::Circuit compile_clifford_t(const ir::Circuit& in, int level) {
     return compiler::compile(in, o).circuit;
 }
 
-bool exactly_equivalent(const Circuit& a, const Circuit& b) {
+bool exactly_equivalent(const Circuit& a, const Circuit& b, double seconds = 10) {
     passes::EquivOptions o;
     o.allow_probabilistic = false;
+    o.time_budget_seconds = seconds;
     return passes::check_equivalence(a, b, o).verdict == passes::Verdict::Equivalent;
 }
 
@@ -80,7 +81,9 @@ TEST_CASE("families at -O2 and -O3 clifford+t: equivalent to the Toffoli input, 
             CHECK(t <= r.folding);
             CHECK(t >= r.best);
             if (r.f.name.rfind("gf2", 0) == 0) CHECK(t < r.folding);
-            CHECK(exactly_equivalent(r.f.circuit, out));
+            // The 49-T GF(2^4) output of -O3 (TOHPE's list) leaves the path sum 6 variables; the
+            // unitary engine decides it in about 15 s of CPU.
+            CHECK(exactly_equivalent(r.f.circuit, out, r.f.name.rfind("gf2", 0) == 0 ? 120 : 10));
         }
     }
 }

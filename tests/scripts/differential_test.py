@@ -302,6 +302,52 @@ def t_network_program(rng):
     return prog
 
 
+def dense_phase_program(rng):
+    """For reduce-t's TOHPE (tcount/tohpe.cpp): half of them multiplier-shaped Toffoli networks on 9
+    or 12 wires (below), the others one Hadamard-free region on 5-7 wires with more odd
+    phase terms than the n(n+1)/2 rows of its elimination (so its kernel is not empty and TOHPE
+    steps and plateau moves happen): T-type phases on random parities and single wires, CNOTs and X
+    between them, S-type phases and CZ, and an H on a wire at the start or the end now and then."""
+    if rng.random() < 0.5:
+        # Shaped like a GF(2^k) multiplier (k = 3, 4: 9 or 12 wires), where TOHPE's lists win over
+        # TODD's: Toffolis a_i b_j -> c_l for most pairs, CNOTs among the c wires between them.
+        k = rng.choice([3, 4])
+        prog = Program(3 * k, 0, False)
+        for _ in range(rng.randint(k * k, k * k + 6)):
+            if rng.random() < 0.8:
+                prog.mcx(2 * k + rng.randrange(k), [(rng.randrange(k), True), (k + rng.randrange(k), True)])
+            else:
+                a, b = pick(rng, list(range(2 * k, 3 * k)), 2)
+                prog.mcx(b, [(a, True)])
+        return prog
+    n = rng.randint(5, 7)
+    prog = Program(n, 0, False)
+    data = list(range(n))
+    if rng.random() < 0.3:
+        one_qubit_line(rng, prog, rng.choice(data), prog.ops, prog.lines)
+    for _ in range(rng.randint(n * (n + 1) // 2 + 2, n * (n + 1) // 2 + 20)):
+        r = rng.random()
+        if r < 0.6:  # an odd multiple of pi/4 on a parity of 1-4 wires
+            ws = pick(rng, data, rng.randint(1, 4))
+            theta = rng.choice(["pi/4", "-pi/4", "3*pi/4", "-3*pi/4"])
+            prog.lines.append(f"phase({theta}) " + " ^ ".join(prog.name(w) for w in ws))
+            prog.ops.append(("parity", eval(theta.replace("pi", "math.pi")), list(ws)))
+        elif r < 0.8:
+            a, b = pick(rng, data, 2)
+            prog.mcx(b, [(a, rng.random() < 0.9)])
+        elif r < 0.87:
+            prog.mcx(rng.choice(data), [])
+        else:
+            ws = pick(rng, data, rng.randint(1, 2))
+            theta = rng.choice(["pi/2", "pi"])
+            lit = lits_of(rng, ws, neg_rate=0.1)
+            prog.lines.append(f"phase({theta}) " + " & ".join(prog.lit(w, p) for w, p in lit))
+            prog.ops.append(("phase", eval(theta.replace("pi", "math.pi")), lit))
+    if rng.random() < 0.3:
+        one_qubit_line(rng, prog, rng.choice(data), prog.ops, prog.lines)
+    return prog
+
+
 def gadget_program(rng):
     """For reduce-t's Hadamard gadgets: Toffolis on 3-6 wires with H gates between them on their
     targets and on their controls, negative controls, CNOTs (some on negative controls), T, S and
@@ -769,6 +815,14 @@ def main():
             f.write(prog.text())
         progs.append((path, prog) + reference_states(prog, rng_np))
         t_paths.add(path)
+    rng_dense = random.Random(SEED + 7919)  # its own stream: the other generators' programs stay as they were
+    for i in range(T_CIRCUITS):
+        prog = dense_phase_program(rng_dense)
+        path = os.path.join(tmp, f"d{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
+        t_paths.add(path)
     for i in range(ZX_CIRCUITS):  # zx-merge runs in the same configurations as reduce-t
         prog = teleport_program(rng)
         path = os.path.join(tmp, f"z{i:04d}.wq")
@@ -839,7 +893,7 @@ def main():
                 print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
     shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
     print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations, "
-          f"{T_CIRCUITS} T networks x 4, {ZX_CIRCUITS} phase networks x 4, {T_CIRCUITS} gadget networks x 2 "
+          f"{T_CIRCUITS} T networks x 4, {T_CIRCUITS} dense phase networks x 4, {ZX_CIRCUITS} phase networks x 4, {T_CIRCUITS} gadget networks x 2 "
           f"and {R_CIRCUITS} rule networks (every level of the rotation targets, and -O3 with --rewrite-effort 3) "
           f"(clifford+t -O2, -O3, with and without --gadget-wires 6): "
           f"{checked} outputs checked by numpy ({gadget_outputs} with Hadamard gadgets kept), {failures} failures, "
