@@ -6,6 +6,7 @@
 #include "passes/resynth_3q.h"
 #include "passes/op_replacements.h"
 
+#include <algorithm>
 #include <cmath>
 #include <map>
 #include <optional>
@@ -74,7 +75,9 @@ void remap(std::vector<Op>& ops, const std::vector<uint32_t>& from, const std::v
 
 PassResult resynth_3q(ir::Circuit& c, const PassOptions& opts) {
     PassResult r;
-    if (!opts.target || opts.resynth_effort == 0) return r;
+    if (!opts.target) return r;
+    // The pipeline adds the pass only when resynth_effort > 0; named in --passes it runs at least one unit.
+    const uint64_t effort = std::max<uint32_t>(1, opts.resynth_effort);
     const lowering::Target target = *opts.target;
     if (target == lowering::Target::CliffordT || target == lowering::Target::Nct) return r;
     const ir::Entangler ent = lowering::entangler(target);
@@ -88,7 +91,7 @@ PassResult resynth_3q(ir::Circuit& c, const PassOptions& opts) {
     ir::Angle phase = c.global_phase;
     std::map<std::vector<int64_t>, Cached> cache;
     uint64_t steps = 0;
-    const uint64_t pass_budget = kPassSteps * opts.resynth_effort;
+    const uint64_t pass_budget = kPassSteps * effort;
     const std::vector<uint32_t> placeholders = {0, 1, 2};
     bool budget_note = false;
     bool any = false;
@@ -108,7 +111,7 @@ PassResult resynth_3q(ir::Circuit& c, const PassOptions& opts) {
             lowering::BlockSynthesisOptions so;
             so.max_distance = bound;
             so.max_entanglers = int(bl.two_qubit) - 1;
-            so.budget = std::min<uint64_t>(kBlockSteps * opts.resynth_effort, pass_budget - steps);
+            so.budget = std::min<uint64_t>(kBlockSteps * effort, pass_budget - steps);
             const lowering::BlockSynthesis s = lowering::synthesize_block(u, placeholders, ent, basis, so);
             steps += s.iterations;
             r.count("blocks-searched");

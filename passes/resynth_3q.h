@@ -11,7 +11,7 @@ namespace whittle::passes {
 /// strictly fewer two-qubit gates within distance 1e-8 (Frobenius, up to phase); a found circuit
 /// replaces the block and its distance is added to PassResult::error_bound. Results are cached by
 /// block unitary. Runs for the rotation targets; PassOptions::resynth_effort scales the budget
-/// (0 = off).
+/// (0 counts as 1 here; the -O3 pipeline adds the pass only when it is above 0).
 PassResult resynth_3q(ir::Circuit& c, const PassOptions& opts);
 
 }  // namespace whittle::passes
