@@ -111,6 +111,14 @@ PassResult resynth_3q(ir::Circuit& c, const PassOptions& opts) {
             lowering::BlockSynthesisOptions so;
             so.max_distance = bound;
             so.max_entanglers = int(bl.two_qubit) - 1;
+            // Top-down from the block's own entanglers (a bottom-up search rarely reaches a long block's depth).
+            for (size_t i : bl.ops) {
+                std::vector<uint32_t> ws = c.ops[i].wires();
+                if (ws.size() != 2) continue;
+                auto index = [&](uint32_t w) { return int(std::find(bl.wires.begin(), bl.wires.end(), w) - bl.wires.begin()); };
+                so.from_places.emplace_back(index(ws[0]), index(ws[1]));
+            }
+            so.restarts = 2;
             so.budget = std::min<uint64_t>(kBlockSteps * effort, pass_budget - steps);
             const lowering::BlockSynthesis s = lowering::synthesize_block(u, placeholders, ent, basis, so);
             steps += s.iterations;

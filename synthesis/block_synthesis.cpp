@@ -392,7 +392,27 @@ BlockSynthesis synthesize_block(const Eigen::MatrixXcd& u_in, const std::vector<
     std::vector<Candidate> beam;
     Candidate found;
     bool ok = false;
-    for (int depth = 0; depth <= opts.max_entanglers && out.iterations < opts.budget && !ok; ++depth) {
+    if (!opts.from_places.empty()) {
+        std::vector<std::pair<int, int>> cur = opts.from_places;
+        std::set<std::vector<std::pair<int, int>>> seen;
+        bool shorter = true;
+        while (shorter && !cur.empty() && out.iterations < opts.budget) {
+            shorter = false;
+            for (size_t d = 0; d < cur.size() && out.iterations < opts.budget; ++d) {
+                std::vector<std::pair<int, int>> ch = cur;
+                ch.erase(ch.begin() + std::ptrdiff_t(d));
+                if (!seen.insert(ch).second) continue;
+                Fit f = fit_list(ch, nullptr);
+                if (f.distance <= target) {
+                    found = {ch, std::move(f)};
+                    ok = shorter = true;
+                    cur = std::move(ch);
+                    break;
+                }
+            }
+        }
+    }
+    for (int depth = 0; !opts.from_places.empty() ? false : depth <= opts.max_entanglers && out.iterations < opts.budget && !ok; ++depth) {
         std::vector<Candidate> level;
         std::set<std::vector<std::pair<int, int>>> seen;
         if (depth == 0) {

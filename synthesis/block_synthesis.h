@@ -26,6 +26,10 @@ struct BlockSynthesisOptions {
     int max_iterations = 300;   ///< Levenberg–Marquardt steps per instantiation
     uint64_t budget = 100000;    ///< Levenberg–Marquardt steps for the whole call (search and snapping)
     uint64_t seed = 1;           ///< the restarts' generator seed
+    /// When not empty, the search runs top-down from this placement list (pairs of indices into
+    /// `wires`, e.g. a block's own entanglers): lists with one placement removed are instantiated,
+    /// the first that fits is kept and shortened again, until none fits.
+    std::vector<std::pair<int, int>> from_places;
     bool snap = true;            ///< round angles to multiples of pi/4 where the distance stays within max_distance
 };
 
