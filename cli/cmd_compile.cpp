@@ -45,6 +45,7 @@ struct CompileArgs {
     uint32_t extra_ancillas = 0;
     uint32_t gadget_wires = 0;
     uint32_t rewrite_effort = 1;
+    uint32_t resynth_effort = 0;
     double epsilon = 1e-10;
     std::optional<double> total_error;
     std::optional<uint32_t> qubit_limit;
@@ -141,6 +142,7 @@ compiler::CompileOptions compile_options(const CompileArgs& a) {
     o.extra_ancillas = a.extra_ancillas;
     o.gadget_wires = a.gadget_wires;
     o.rewrite_effort = a.rewrite_effort;
+    o.resynth_effort = a.resynth_effort;
     o.epsilon = a.epsilon;
     o.total_error = a.total_error;
     o.qubit_limit = a.qubit_limit;
@@ -427,6 +429,10 @@ void add_compile_command(CLI::App& app, int& exit_code) {
     cmd->add_option("--rewrite-effort", args->rewrite_effort,
                     "budget of the identity-library search at -O3 on the rotation targets (rewrite-search): 0 off, "
                     "each unit 32 rounds, 4000 rewrites, 150000 match attempts (1 s cap), at most 100")
+        ->capture_default_str();
+    cmd->add_option("--resynth-effort", args->resynth_effort,
+                    "budget of the three-wire block resynthesis at -O3 on the rotation targets (resynth-3q): 0 off "
+                    "(default), each unit 4000 optimizer steps per block and 400000 per compile, at most 100")
         ->capture_default_str();
     cmd->add_option("--epsilon", args->epsilon, "error bound per approximated rotation (clifford+t), in [1e-15, 1)")->capture_default_str();
     cmd->add_option("--total-error", args->total_error,

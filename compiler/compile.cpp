@@ -141,6 +141,7 @@ passes::PassOptions pass_options(const CompileOptions& o) {
     po.gadget_wires = o.gadget_wires;
     po.epsilon = o.epsilon;
     po.rewrite_effort = o.rewrite_effort;
+    po.resynth_effort = o.resynth_effort;
     return po;
 }
 
@@ -158,6 +159,7 @@ void check_options(const CompileOptions& o) {
             throw UserError("--total-error and --epsilon both set: --total-error splits the whole circuit's error over "
                             "its rotations, --epsilon sets each rotation's; give one");
     }
+    if (o.resynth_effort > 100) throw UserError(fmt::format("--resynth-effort must lie in 0..100, got {}", o.resynth_effort));
     if (o.rewrite_effort > 100) throw UserError(fmt::format("--rewrite-effort must lie in 0..100, got {}", o.rewrite_effort));
     if (o.gadget_wires > 0 && !o.allow_measurement)
         throw UserError("--gadget-wires needs --allow-measurement (a Hadamard gadget measures its wire)");

@@ -43,6 +43,7 @@ struct CompileOptions {
     /// Budget of the rule search at -O3 (rewrite-search, docs/rules.md): 0 turns it off; each unit
     /// adds 32 search rounds, 4000 rewrites and 150000 match attempts (a 1 s cap). At most 100.
     uint32_t rewrite_effort = 1;
+    uint32_t resynth_effort = 0;    ///< resynth-3q budget at -O3 (0 = off; PassOptions::resynth_effort)
     /// The approximation error allowed for the whole circuit (clifford+t): split evenly over the
     /// rotations the synthesis approximates, so the report's approximation_error_bound stays within
     /// it; replaces `epsilon` (set one or the other). In [1e-15, 1).

@@ -97,6 +97,7 @@ Json compile_report(const CompileReportInput& in) {
         {"extra_ancillas", in.options.extra_ancillas},
         {"gadget_wires", in.options.gadget_wires},
         {"rewrite_effort", in.options.rewrite_effort},
+        {"resynth_effort", in.options.resynth_effort},
         {"epsilon", in.options.epsilon},
         {"passes", in.explicit_passes.empty() ? Json(nullptr) : Json(in.explicit_passes)},
         {"emit", in.emit},

@@ -22,6 +22,7 @@
 #include "passes/reduce_t.h"
 #include "passes/zx_merge.h"
 #include "passes/resynth_2q.h"
+#include "passes/resynth_3q.h"
 #include "passes/rewrite_search.h"
 #include "passes/to_target.h"
 
@@ -61,6 +62,8 @@ const std::vector<PassInfo>& all_passes() {
          Stage::LowLevel, fuse_1q},
         {"resynth-2q", "resynthesize two-qubit blocks by KAK with the fewest entangling gates", Stage::LowLevel,
          resynth_2q},
+        {"resynth-3q", "resynthesize three-qubit blocks numerically with fewer entangling gates (counted budget)",
+         Stage::LowLevel, resynth_3q},
         {"rewrite-search", "apply the target's identity library (rules/library) by a cost-guided search on the dependency graph",
          Stage::LowLevel, rewrite_search},
         {"drop-idle-wires", "remove the ancilla and borrow wires no op touches", Stage::LowLevel, drop_idle_wires},

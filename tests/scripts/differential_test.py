@@ -32,7 +32,9 @@ WHITTLE_DIFF_SEED picks the seed (default 1), WHITTLE_DIFF_CIRCUITS the number o
 80), WHITTLE_DIFF_T_CIRCUITS the number of T networks and of gadget networks and
 WHITTLE_DIFF_ZX_CIRCUITS that of phase networks and WHITTLE_DIFF_R_CIRCUITS that of the CNOT-ladder
 networks for rewrite-search (rule_program; compiled at every level of the rotation targets and at
--O3 with `--optimize-for 2q --rewrite-effort 3`) (default half of that each); a failure prints the
+-O3 with `--optimize-for 2q --rewrite-effort 3`) (default half of that each), and
+WHITTLE_DIFF_B_CIRCUITS that of the three-wire block networks for resynth-3q (block_program; -O3 on
+the rotation targets with `--optimize-for 2q --resynth-effort 1`; default an eighth); a failure prints the
 .wq input, the configuration and a command that reproduces it.
 """
 import math
@@ -52,6 +54,7 @@ CIRCUITS = int(os.environ.get("WHITTLE_DIFF_CIRCUITS", "80"))
 T_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_T_CIRCUITS", str(max(1, CIRCUITS // 2))))
 ZX_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_ZX_CIRCUITS", str(max(1, CIRCUITS // 2))))
 R_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_R_CIRCUITS", str(max(1, CIRCUITS // 2))))
+B_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_B_CIRCUITS", str(max(1, CIRCUITS // 8))))
 RULE_TARGETS = ["cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r"]
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
@@ -485,6 +488,33 @@ def rule_program(rng):
     return prog
 
 
+def block_program(rng):
+    """For resynth-3q (numerical three-wire block synthesis): Toffolis on three shared wires in every
+    control order, CNOTs between their wires that make neighbouring Toffolis partly cancel,
+    controlled phases by generic angles (controlled rotations) and doubly controlled ones, and a
+    few one-qubit gates: blocks with many entanglers whose unitary needs fewer, where a wrong
+    synthesized circuit (wire order, phase, a snapped angle) would show."""
+    n = rng.randint(3, 4)
+    prog = Program(n, 0, False)
+    data = list(range(n))
+    for _ in range(rng.randint(4, 10)):
+        r = rng.random()
+        ws = pick(rng, data, 3)
+        if r < 0.4:
+            prog.mcx(ws[2], [(ws[0], True), (ws[1], rng.random() < 0.8)])
+        elif r < 0.6:
+            t = rng.choice(ws)
+            prog.mcx(t, [(rng.choice([w for w in ws if w != t]), True)])
+        elif r < 0.8:
+            k = rng.choice([1, 3, 5, -1, 7, 11])
+            lits = [(w, True) for w in ws[:rng.randint(2, 3)]]
+            prog.lines.append(f"phase({k}*pi/12) " + " & ".join(prog.name(w) for w, _ in lits))
+            prog.ops.append(("phase", k * math.pi / 12, lits))
+        else:
+            one_qubit_line(rng, prog, rng.choice(ws), prog.ops, prog.lines)
+    return prog
+
+
 def random_program(rng, classical):
     """A random program; a classical one (X-type ops only) is one the nct target can take too."""
     n_data = rng.randint(4, 7)
@@ -846,7 +876,16 @@ def main():
             f.write(prog.text())
         progs.append((path, prog) + reference_states(prog, rng_np))
         r_paths.add(path)
+    b_paths = set()  # the block networks: compiled for the rotation targets at -O3 with resynth-3q
+    for i in range(B_CIRCUITS):
+        prog = block_program(rng)
+        path = os.path.join(tmp, f"b{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
+        b_paths.add(path)
     configs = [(t, o, False) for t in TARGETS for o in LEVELS] + [("clifford+t", o, True) for o in LEVELS]
+    configs += [(t, "-O3", "blocks") for t in RULE_TARGETS]
     configs += [(t, "-O3", "rules") for t in RULE_TARGETS]
     configs += [("clifford+t", o, "gadgets") for o in ("-O2", "-O3")]
     checked = failures = refused = gadget_outputs = 0
@@ -856,15 +895,19 @@ def main():
         if meas == "gadgets":
             progs = [p for p in progs if p[0] in t_paths or p[0] in g_paths]
         elif meas == "rules":
-            progs = [p for p in progs if p[0] in r_paths or p[0] not in t_paths | g_paths]
+            progs = [p for p in progs if p[0] in r_paths or p[0] not in t_paths | g_paths | b_paths]
+        elif meas == "blocks":
+            progs = [p for p in progs if p[0] in b_paths]
         else:
+            progs = [p for p in progs if p[0] not in b_paths]
             progs = [p for p in progs if p[0] not in r_paths or target in RULE_TARGETS]
             progs = [p for p in progs if p[0] not in g_paths]
             if not (target == "clifford+t" and level in ("-O2", "-O3") and not meas):
                 progs = [p for p in progs if p[0] not in t_paths]
         flags = {False: "", True: " --allow-measurement", "gadgets": " --allow-measurement --gadget-wires 6",
-                 "rules": " --optimize-for 2q --rewrite-effort 3"}[meas]
-        suffix = {False: "", True: "-m", "gadgets": "-mg", "rules": "-r"}[meas]
+                 "rules": " --optimize-for 2q --rewrite-effort 3",
+                 "blocks": " --optimize-for 2q --resynth-effort 1"}[meas]
+        suffix = {False: "", True: "-m", "gadgets": "-mg", "rules": "-r", "blocks": "-b"}[meas]
         outdir = os.path.join(tmp, f"{target}{level}{suffix}".replace("+", "_"))
         os.mkdir(outdir)
         cmd = [WHITTLE, "compile", "-q", "-j", "2", "--target", target, level, "--emit", "qasm2", "-o", outdir]
@@ -895,6 +938,7 @@ def main():
     print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations, "
           f"{T_CIRCUITS} T networks x 4, {T_CIRCUITS} dense phase networks x 4, {ZX_CIRCUITS} phase networks x 4, {T_CIRCUITS} gadget networks x 2 "
           f"and {R_CIRCUITS} rule networks (every level of the rotation targets, and -O3 with --rewrite-effort 3) "
+          f"and {B_CIRCUITS} block networks (-O3 with --resynth-effort 1 on the rotation targets) "
           f"(clifford+t -O2, -O3, with and without --gadget-wires 6): "
           f"{checked} outputs checked by numpy ({gadget_outputs} with Hadamard gadgets kept), {failures} failures, "
           f"{refused} refused with a located reason (nct)")
