@@ -93,7 +93,7 @@ ir::Metric parse_metric(const std::string& s) {
 PyCircuit compile(const PyCircuit& in, const std::string& target, int level, bool allow_measurement,
                   const std::string& optimize_for, const std::optional<std::string>& pass_list, double epsilon,
                   uint32_t extra_ancillas, uint32_t gadget_wires, std::optional<double> total_error,
-                  std::optional<uint32_t> qubit_limit, uint32_t rewrite_effort) {
+                  std::optional<uint32_t> qubit_limit, uint32_t rewrite_effort, uint32_t resynth_effort) {
     if (level < 0 || level > 3) throw PyError(fmt::format("level must be 0, 1, 2 or 3, not {}", level));
     compiler::CompileOptions o;
     o.level = level;
@@ -105,6 +105,7 @@ PyCircuit compile(const PyCircuit& in, const std::string& target, int level, boo
     o.extra_ancillas = extra_ancillas;
     o.gadget_wires = gadget_wires;
     o.rewrite_effort = rewrite_effort;
+    o.resynth_effort = resynth_effort;
     o.passes = pass_list.value_or("");
     o.check = false;
     o.report = true;  // count() returns it
@@ -163,6 +164,7 @@ PYBIND11_MODULE(whittle, m) {
              py::arg("allow_measurement") = false, py::arg("optimize_for") = "t", py::arg("passes") = py::none(),
              py::arg("epsilon") = 1e-10, py::arg("extra_ancillas") = 0, py::arg("gadget_wires") = 0,
              py::arg("total_error") = py::none(), py::arg("qubit_limit") = py::none(), py::arg("rewrite_effort") = 1,
+             py::arg("resynth_effort") = 0,
              "optimize and lower into a native gate set; returns a new Circuit (this one is unchanged)")
         .def("count", &count,
              "the JSON report as a dict (docs/report-schema.md): resources, plus passes and options after compile")

@@ -68,6 +68,13 @@ for effort in (0, 2):
     ran = any(p["name"] == "rewrite-search" for p in rr["passes"])
     check(ran == (effort > 0), f"rewrite-search in the -O3 pipeline with effort {effort}")
 
+# The block resynthesis' effort likewise: 0 (the default) leaves resynth-3q out, 1 puts it in.
+for effort in (0, 1):
+    rr = c.compile(target="cx+rz+sx", level=3, optimize_for="2q", resynth_effort=effort).count()
+    check(rr["options"]["resynth_effort"] == effort, f"report options.resynth_effort {effort}")
+    ran = any(p["name"] == "resynth-3q" for p in rr["passes"])
+    check(ran == (effort > 0), f"resynth-3q in the -O3 pipeline with effort {effort}")
+
 # OpenQASM 2.0 export, recounted by the independent reader; 3.0 export has its header.
 q2 = low.to_qasm(2)
 mine = recount(q2)
