@@ -90,21 +90,6 @@ std::vector<BitVec> admissible(const TaggedEchelon& image, const std::vector<Bit
     return ys;
 }
 
-/// M(e_j) = a_j a_j^T packed, the echelon basis of their span (tags: columns) and the kernel K0.
-void image_of_columns(const std::vector<uint64_t>& cols, uint32_t n, TaggedEchelon& image, std::vector<BitVec>& k0,
-                      uint64_t& work) {
-    const size_t m = cols.size(), tri = size_t(n) * (n + 1) / 2;
-    for (size_t j = 0; j < m; ++j) {
-        BitVec v(tri);
-        for (uint64_t r = cols[j]; r; r &= r - 1) {
-            const uint32_t a = uint32_t(std::countr_zero(r));
-            for (uint64_t q = cols[j] >> a; q; q &= q - 1) v.set(sym_index(a, a + uint32_t(std::countr_zero(q)), n));
-        }
-        BitVec tag(m);
-        tag.set(j);
-        if (!image.insert(v, tag, work)) k0.push_back(tag);
-    }
-}
 
 /// Columns after A + z y^T (and z when |y| is odd), made proper.
 std::vector<uint64_t> apply_step(const std::vector<uint64_t>& cols, uint64_t z, const BitVec& y) {
@@ -147,6 +132,21 @@ BitVec greedy_solution(const std::vector<BitVec>& ys, const std::vector<std::pai
 }
 
 }  // namespace
+
+void image_of_columns(const std::vector<uint64_t>& cols, uint32_t n, TaggedEchelon& image, std::vector<BitVec>& k0,
+                      uint64_t& work) {
+    const size_t m = cols.size(), tri = size_t(n) * (n + 1) / 2;
+    for (size_t j = 0; j < m; ++j) {
+        BitVec v(tri);
+        for (uint64_t r = cols[j]; r; r &= r - 1) {
+            const uint32_t a = uint32_t(std::countr_zero(r));
+            for (uint64_t q = cols[j] >> a; q; q &= q - 1) v.set(sym_index(a, a + uint32_t(std::countr_zero(q)), n));
+        }
+        BitVec tag(m);
+        tag.set(j);
+        if (!image.insert(v, tag, work)) k0.push_back(tag);
+    }
+}
 
 void make_proper(std::vector<uint64_t>& columns) {
     std::sort(columns.begin(), columns.end());

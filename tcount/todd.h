@@ -33,6 +33,12 @@ ToddResult todd_reduce(std::vector<uint64_t> columns, uint32_t n, const ToddSett
 /// the signature tensor of A (y[j] = 1: column j gets z added). For tests.
 std::vector<std::vector<uint8_t>> admissible_updates(const std::vector<uint64_t>& columns, uint32_t n, uint64_t z);
 
+/// M(e_j) = a_j a_j^T packed (upper triangle) for each column a_j: the echelon basis of their span
+/// into `image` (tags: columns) and the kernel K0 (tags of the columns whose M is dependent) into
+/// `k0`, the elimination's words added to `work`.
+void image_of_columns(const std::vector<uint64_t>& cols, uint32_t n, TaggedEchelon& image, std::vector<BitVec>& k0,
+                      uint64_t& work);
+
 /// The same basis as BitVecs over the m columns, with the elimination's words added to `work`.
 std::vector<BitVec> admissible_basis(const std::vector<uint64_t>& columns, uint32_t n, uint64_t z, uint64_t& work);
 

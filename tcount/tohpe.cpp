@@ -27,8 +27,6 @@
 namespace whittle::tcount {
 namespace {
 
-size_t sym_index(uint32_t a, uint32_t b, uint32_t n) { return size_t(a) * (2 * size_t(n) - a + 1) / 2 + (b - a); }
-
 /// splitmix64: a fixed, portable sequence.
 struct Rng {
     uint64_t s;
@@ -42,19 +40,9 @@ struct Rng {
 
 /// A basis of K0 = ker M, by elimination of the packed a_j a_j^T with a pivot map.
 std::vector<BitVec> kernel_basis(const std::vector<uint64_t>& cols, uint32_t n, uint64_t& work) {
-    const size_t m = cols.size(), tri = size_t(n) * (n + 1) / 2;
     TaggedEchelon image;
     std::vector<BitVec> k0;
-    for (size_t j = 0; j < m; ++j) {
-        BitVec v(tri);
-        for (uint64_t r = cols[j]; r; r &= r - 1) {
-            const uint32_t a = uint32_t(std::countr_zero(r));
-            for (uint64_t q = cols[j] >> a; q; q &= q - 1) v.set(sym_index(a, a + uint32_t(std::countr_zero(q)), n));
-        }
-        BitVec tag(m);
-        tag.set(j);
-        if (!image.insert(v, tag, work)) k0.push_back(std::move(tag));
-    }
+    image_of_columns(cols, n, image, k0, work);
     return k0;
 }
 
