@@ -15,7 +15,10 @@ CleanWireTracker::CleanWireTracker(const ir::Circuit& c) : c_(c), wires_(c.num_q
     for (size_t i = 0; i < c.ops.size(); ++i) {
         scratch_.clear();
         c.ops[i].wires(scratch_);
-        for (uint32_t w : scratch_) wires_[w].last_use = i + 1;
+        for (uint32_t w : scratch_) {
+            wires_[w].first_use = std::min(wires_[w].first_use, i);
+            wires_[w].last_use = i + 1;
+        }
     }
     for (uint32_t w = 0; w < c.num_qubits(); ++w)
         if (wires_[w].clean) zero_.insert(w);
@@ -31,6 +34,7 @@ void CleanWireTracker::refresh(uint32_t w, size_t index) {
 }
 
 void CleanWireTracker::step(size_t index) {
+    at_ = index + 1;
     const ir::Op& op = c_.ops[index];
     auto bump = [&](uint32_t w) { ++wires_[w].version; };
     const bool writes_target = op.target != ir::kNoWire && !op.is_diagonal();

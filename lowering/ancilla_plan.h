@@ -24,8 +24,17 @@ public:
     /// Clean wires that are |0> before op `index` (the next op to step over), in wire order.
     const std::set<uint32_t>& zero_wires() const { return zero_; }
     bool is_zero(uint32_t w) const { return zero_.count(w) != 0; }
+    /// A clean wire provably holding the constant 1 before the next op (a loaded constant bit).
+    bool is_one(uint32_t w) const {
+        const Wire& s = wires_[w];
+        return s.clean && !s.unknown && at_ < s.last_use && s.terms.size() == 1 && s.terms[0].empty();
+    }
     /// Advances past op `index` (ops must be stepped in order, starting at 0).
     void step(size_t index);
+    /// Whether the next op to step over lies strictly inside `w`'s life (after its first use and
+    /// before its last): a clean wire taken there for a construction keeps its first and last
+    /// use, where one taken before its first use or after its last lives longer.
+    bool inside_life(uint32_t w) const { return wires_[w].first_use < at_ && at_ + 1 < wires_[w].last_use; }
 
 private:
     using Term = std::vector<uint64_t>;  // sorted (lit bits << 32 | version)
@@ -33,11 +42,13 @@ private:
         bool clean = false, unknown = false;
         std::vector<Term> terms;
         uint32_t version = 0;
-        size_t last_use = 0;
+        size_t first_use = ~size_t(0);  // index of the first op on the wire
+        size_t last_use = 0;                // index of the last op on the wire, plus one
     };
     const ir::Circuit& c_;
     std::vector<Wire> wires_;
     std::set<uint32_t> zero_;
+    size_t at_ = 0;  // the next op to step over
     std::vector<uint32_t> scratch_;
     void refresh(uint32_t w, size_t index);
 };

@@ -178,11 +178,14 @@ std::vector<uint32_t> ControlLowerer::take_clean(size_t n, const std::vector<uin
     for (uint32_t w : busy) scratch_[w] = 1;
     // Exclude wires already holding a value for an enclosing construction.
     std::vector<uint32_t> out;
-    for (uint32_t w : clean_zero_) {
-        if (out.size() == n) break;
-        if (scratch_[w] || in_use_[w]) continue;
-        out.push_back(w);
-    }
+    for (int round = lives_ ? 0 : 1; round < 2; ++round)
+        for (uint32_t w : clean_zero_) {
+            if (out.size() == n) break;
+            if (scratch_[w] || in_use_[w]) continue;
+            const bool inside = lives_ && lives_->inside_life(w);
+            if ((round == 0) != inside) continue;  // round 0: inside a life; round 1: the rest
+            out.push_back(w);
+        }
     for (uint32_t w : busy) scratch_[w] = 0;
     for (uint32_t w : out) in_use_[w] = 1;
     return out;

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "ir/circuit.h"
+#include "lowering/ancilla_plan.h"
 #include "lowering/op_sink.h"
 
 namespace whittle::lowering {
@@ -95,6 +96,10 @@ public:
     /// The first (outermost) construction chosen since the last reset, with its detail.
     const std::string& top_choice() const { return top_choice_; }
     void set_choice(const std::string& what);
+    /// Clean wires are taken first from those whose life (in `lives`, which walks the same ops)
+    /// encloses the op, so a construction's work wires add no qubit that share-work-wires could
+    /// have saved; then in wire order.
+    void prefer_wires_inside_lives(const CleanWireTracker& lives) { lives_ = &lives; }
     void reset_choice() {
         top_choice_.clear();
         top_method_.clear();
@@ -114,6 +119,7 @@ private:
     ir::Circuit& c_;
     OpSink* sink_;
     const std::set<uint32_t>& clean_zero_;
+    const CleanWireTracker* lives_ = nullptr;  // see prefer_wires_inside_lives
     ControlStyle style_;
     bool classical_only_;
     int64_t rotation_t_cost_, rotation_depth_cost_;

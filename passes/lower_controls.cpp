@@ -109,6 +109,7 @@ PassResult lower_controls(ir::Circuit& c, const PassOptions& opts) {
     const int64_t rotation_depth = opts.target == ir::Target::CliffordT ? 2 * rotation_t : 1;
     lowering::ControlLowerer lw(c, sink, tracker.zero_wires(), style_of(opts.optimize_for), opts.target == ir::Target::Nct,
                                 std::max<int64_t>(rotation_t, 1), rotation_depth);
+    lw.prefer_wires_inside_lives(tracker);
     size_t lowered = 0;
     for (size_t i = 0; i < c.ops.size(); ++i) {
         const ir::Op& op = c.ops[i];

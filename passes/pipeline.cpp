@@ -62,15 +62,20 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
         // -O3 repeats the round: merges expose cancellations and foldings, and vice versa.
         add({"merge-controls", "fold-phases", "cancel"});
     }
-    // Last of all (at -O1 and up): the work wires no op touches leave the output.
+    // Last of all (at -O1 and up): clean work wires whose lives do not overlap share wires, and the
+    // work wires no op touches leave the output.
     if (!opts.target) {
-        if (level >= 1) add({"drop-idle-wires"});
+        if (level >= 1) add({"split-work-lives", "share-work-wires", "drop-idle-wires"});
         return p;
     }
     // Lowering to the target gate set (lowering/): pairs and free wires are found on the optimized
     // high-level ops, multi-controls become Toffolis chosen by those free wires, Toffolis become
     // Clifford+T (nct keeps them), then the target's own gates and its cleanup (one-qubit fusion,
     // and KAK resynthesis of two-qubit blocks on the rotation targets).
+    // split-work-lives first, while the work wires' values are still classical: a wire the front
+    // end handed from one routine call to the next, back at |0> in between, becomes one wire per
+    // life, so the lowering sees it free between them and share-work-wires (last) can pack the lives.
+    if (level >= 1) add({"split-work-lives"});
     add({"pair-uncompute", "plan-ancillas", "lower-controls"});
     // pair-uncompute again: the constructions' own Toffolis (e.g. the two halves of the Lemma 7.3
     // split) form pairs that lower-toffoli can give relative phases; it checks every middle.
@@ -110,7 +115,7 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     // search does not, at 20x the compile time (docs/resynthesis.md).
     if (level >= 3 && has_library && opts.resynth_effort > 0) add({"resynth-3q", "fuse-1q"});
     if (level >= 3 && has_library && opts.rewrite_effort > 0) add({"rewrite-search", "fuse-1q"});
-    if (level >= 1) add({"drop-idle-wires"});
+    if (level >= 1) add({"share-work-wires", "drop-idle-wires"});
     return p;
 }
 

@@ -24,6 +24,8 @@
 #include "passes/resynth_2q.h"
 #include "passes/resynth_3q.h"
 #include "passes/rewrite_search.h"
+#include "passes/share_work_wires.h"
+#include "passes/split_work_lives.h"
 #include "passes/to_target.h"
 
 namespace whittle::passes {
@@ -43,6 +45,8 @@ const std::vector<PassInfo>& all_passes() {
          pair_uncompute},
         {"plan-ancillas", "report the clean and borrowable wires free at each multi-controlled op", Stage::HighLevel,
          plan_ancillas},
+        {"split-work-lives", "a clean work wire back at |0> between two of its ops continues on a fresh wire",
+         Stage::HighLevel, split_work_lives},
         // Lowering steps.
         {"lower-controls", "multi-controlled ops to Toffolis: clean-wire ladders, borrowed-wire ladders, no-work-wire forms",
          Stage::Lowering, lower_controls},
@@ -66,6 +70,8 @@ const std::vector<PassInfo>& all_passes() {
          Stage::LowLevel, resynth_3q},
         {"rewrite-search", "apply the target's identity library (rules/library) by a cost-guided search on the dependency graph",
          Stage::LowLevel, rewrite_search},
+        {"share-work-wires", "clean work wires whose lives do not overlap share one output wire", Stage::LowLevel,
+         share_work_wires},
         {"drop-idle-wires", "remove the ancilla and borrow wires no op touches", Stage::LowLevel, drop_idle_wires},
     };
     return passes;
