@@ -142,6 +142,7 @@ passes::PassOptions pass_options(const CompileOptions& o) {
     po.epsilon = o.epsilon;
     po.rewrite_effort = o.rewrite_effort;
     po.resynth_effort = o.resynth_effort;
+    po.split_work_lives = o.split_work_lives;
     return po;
 }
 
@@ -235,7 +236,11 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
     }
     if (o.report || final_check) source = c;
     ir::Circuit alternatives_input;
-    if (!alternative_runs(o, c.ops.size()).empty()) alternatives_input = c;
+    // (split-work-lives may run, and then the runs without it: only with clean wires to split.)
+    const bool may_split = o.split_work_lives && o.passes.empty() && o.level >= 2 && o.target &&
+                           std::any_of(c.qubits.begin(), c.qubits.end(),
+                                       [](const ir::Qubit& q) { return q.role == ir::Role::Clean; });
+    if (may_split || !alternative_runs(o, c.ops.size()).empty()) alternatives_input = c;
     const auto compile_start = std::chrono::steady_clock::now();
     if (o.verify_pass) hooks.verify = o.verify_pass;
     if (o.progress) hooks.progress = o.progress;
@@ -262,7 +267,28 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
     if (!alternatives_input.ops.empty()) {
         auto best = cost_under(unlimited_best, o);
         const CompileOptions* kept = nullptr;
-        for (auto& [why, alt] : alternative_runs(o, alternatives_input.ops.size())) {
+        std::vector<std::pair<std::string, CompileOptions>> runs = alternative_runs(o, alternatives_input.ops.size());
+        // Where split-work-lives changed the run asked for, every run also without it (splitting
+        // frees wires and often saves T, but may split what the lowering would have paired).
+        const bool split = std::any_of(r.records.begin(), r.records.end(), [](const passes::PassRecord& rec) {
+            return rec.name == "split-work-lives" && rec.changed;
+        });
+        if (split) {
+            const size_t n = runs.size();
+            CompileOptions asked = o;
+            asked.passes_done = nullptr;
+            asked.progress = nullptr;
+            runs.emplace_back("", asked);
+            for (size_t k = 0; k <= n; ++k) {
+                CompileOptions a = runs[k].second;
+                a.split_work_lives = false;
+                runs.emplace_back(runs[k].first.empty() ? std::string("without splitting work-wire lives")
+                                                        : runs[k].first + ", without splitting work-wire lives",
+                                  std::move(a));
+            }
+            runs.erase(runs.begin() + ptrdiff_t(n));  // the asked run itself is not run again
+        }
+        for (auto& [why, alt] : runs) {
             ir::Circuit a = alternatives_input;
             std::vector<passes::PassRecord> records = passes::run_passes(a, pass_names(alt), pass_options(alt));
             const ir::Resources res = ir::count_resources(a);

@@ -44,6 +44,9 @@ struct CompileOptions {
     /// adds 32 search rounds, 4000 rewrites and 150000 match attempts (a 1 s cap). At most 100.
     uint32_t rewrite_effort = 1;
     uint32_t resynth_effort = 0;    ///< resynth-3q budget at -O3 (0 = off; PassOptions::resynth_effort)
+    /// split-work-lives before the lowering (PassOptions::split_work_lives); compile also tries the
+    /// runs without it when it split anything, and keeps the cheaper.
+    bool split_work_lives = true;
     /// The approximation error allowed for the whole circuit (clifford+t): split evenly over the
     /// rotations the synthesis approximates, so the report's approximation_error_bound stays within
     /// it; replaces `epsilon` (set one or the other). In [1e-15, 1).

@@ -25,6 +25,7 @@ struct PassOptions {
     uint32_t gadget_wires = 0;        ///< fresh clean wires reduce-t may add for Hadamard gadgets (with allow_measurement)
     double epsilon = 1e-10;           ///< per-rotation approximation error (clifford+t)
     uint32_t resynth_effort = 0;      ///< resynth-3q budget (0 = off, the default; each unit: 4000 optimizer steps per block, 400000 per pass)
+    bool split_work_lives = true;     ///< run split-work-lives before the lowering (-O2 and up, with a target)
     uint32_t rewrite_effort = 1;      ///< rewrite-search budget (0 = off; each unit: 32 rounds, 4000 rewrites, 150000 match attempts)
 };
 

@@ -75,7 +75,9 @@ std::vector<std::string> pipeline_for(const PassOptions& opts) {
     // split-work-lives first, while the work wires' values are still classical: a wire the front
     // end handed from one routine call to the next, back at |0> in between, becomes one wire per
     // life, so the lowering sees it free between them and share-work-wires (last) can pack the lives.
-    if (level >= 1) add({"split-work-lives"});
+    // (It can also cost T, by splitting what the lowering would have paired; compile then keeps
+    // the cheaper of the runs with and without it.)
+    if (level >= 2 && opts.split_work_lives) add({"split-work-lives"});
     add({"pair-uncompute", "plan-ancillas", "lower-controls"});
     // pair-uncompute again: the constructions' own Toffolis (e.g. the two halves of the Lemma 7.3
     // split) form pairs that lower-toffoli can give relative phases; it checks every middle.

@@ -101,6 +101,15 @@ PassResult split_work_lives(ir::Circuit& c, const PassOptions& opts) {
     const bool unload_constants = opts.optimize_for != ir::Metric::Depth;
     std::vector<std::vector<uint32_t>> reload_before(c.ops.size());  // wires loaded with 1 before op j
 
+    // A wire is split only if its value after its last op is provably 0 as well: the lives then
+    // each end at |0> by the same proof, and the pass needs no promise from the program (a wire
+    // whose end is not proved stays whole).
+    {
+        WireValues end(c);
+        for (const ir::Op& op : c.ops) end.step(op);
+        for (uint32_t w = 0; w < n; ++w)
+            if (movable[w] && !end.is_zero(w)) movable[w] = false;
+    }
     WireValues tracker(c);
     std::vector<uint32_t> cur(n);
     for (uint32_t w = 0; w < n; ++w) cur[w] = w;

@@ -5,9 +5,10 @@
 
 namespace whittle::passes {
 
-/// Where a clean work wire is provably back at |0> between two of its ops (the classical value
-/// tracking of lowering::CleanWireTracker: the terms a compute wrote cancelled on every branch),
-/// the ops after that point move to a fresh clean wire. A routine's work wires that the front end
+/// Where a clean work wire is provably back at |0> between two of its ops (its value on every basis
+/// input, tracked as a Boolean polynomial while only X-type and diagonal ops touch it, is 0), the
+/// ops after that point move to a fresh clean wire; only wires whose value after their last op is
+/// provably 0 too are split, so the pass relies on no promise of the program. A routine's work wires that the front end
 /// handed from one call to the next, and a constant register loaded and unloaded around each of
 /// several uses, become one wire per life, which share-work-wires can then pack around the other
 /// lives (run before lowering, while the ops are still classical on those wires). Registers with a

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <random>
+#include <utility>
 #include <vector>
 
 #include "ir/circuit.h"
@@ -44,12 +45,22 @@ inline ir::Circuit on_wires_of(const ir::Circuit& a, const ir::Circuit& b) {
     return out;
 }
 
+/// `a` with the clean registers that on_wires_of(a, b) appends for `b` (idle in `a`), and that
+/// circuit: both on the same wires (work wires the compiler added or pooled, say by
+/// share-work-wires, are |0> on the inputs compared and must come back to |0>).
+inline std::pair<ir::Circuit, ir::Circuit> on_common_wires(const ir::Circuit& a, const ir::Circuit& b_in) {
+    std::pair<ir::Circuit, ir::Circuit> out{a, on_wires_of(a, b_in)};
+    for (size_t r = a.registers.size(); r < out.second.registers.size(); ++r)
+        out.first.add_register(out.second.registers[r].name, out.second.registers[r].size, ir::Role::Clean);
+    return out;
+}
+
 /// Distance up to global phase between the unitaries of a and b (same wires) restricted to the
 /// inputs where every Clean-role wire of `a` is |0>; outputs must agree in full (so clean wires
 /// must come back to |0>).
-inline double distance_on_clean_inputs(const ir::Circuit& a, const ir::Circuit& b_in) {
-    const ir::Circuit b = on_wires_of(a, b_in);
-    if (b.num_qubits() != a.num_qubits()) return 1e300;  // the compiler added wires: not this helper's case
+inline double distance_on_clean_inputs(const ir::Circuit& a_in, const ir::Circuit& b_in) {
+    const auto [a, b] = on_common_wires(a_in, b_in);
+    if (b.num_qubits() != a.num_qubits() || a.num_qubits() > 14) return 1e300;  // not this helper's case
     const Eigen::MatrixXcd ua = ir::circuit_unitary(a), ub = ir::circuit_unitary(b);
     uint64_t clean_mask = 0;
     for (uint32_t w = 0; w < a.num_qubits(); ++w)
@@ -68,8 +79,8 @@ inline double distance_on_clean_inputs(const ir::Circuit& a, const ir::Circuit& 
 /// Runs `ref` (no measurement) and `lowered` (may measure) from the same random states with clean
 /// wires at |0>, many times; returns the largest distance up to phase of the final states over all
 /// runs (every measurement branch must give the reference state).
-inline double worst_branch_distance(const ir::Circuit& ref, const ir::Circuit& lowered_in, int runs, uint64_t seed) {
-    const ir::Circuit lowered = on_wires_of(ref, lowered_in);
+inline double worst_branch_distance(const ir::Circuit& ref_in, const ir::Circuit& lowered_in, int runs, uint64_t seed) {
+    const auto [ref, lowered] = on_common_wires(ref_in, lowered_in);
     if (lowered.num_qubits() != ref.num_qubits()) return 1e300;
     double worst = 0;
     std::mt19937_64 rng(seed);
