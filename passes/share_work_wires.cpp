@@ -134,7 +134,16 @@ PassResult share_work_wires(ir::Circuit& c, const PassOptions& opts) {
             out.qubits[f + i].role = c.qubits[reg.first + i].role;
         }
     }
-    const uint32_t pool = out.add_register(fresh_work_register_name(c, reg_shared), slots, ir::Role::Clean, false);
+    // When the pool replaces one named register (and the `work` registers split-work-lives cut from
+    // it) and has its size, it keeps that name, so the output still pairs with the source by name;
+    // otherwise it is a fresh `work` register.
+    std::vector<size_t> named;
+    for (size_t ri = 0; ri < c.registers.size(); ++ri)
+        if (reg_shared[ri] && !is_work_register_name(c.registers[ri].name)) named.push_back(ri);
+    const std::string pool_name = named.size() == 1 && c.registers[named[0]].size == slots
+                                      ? c.registers[named[0]].name
+                                      : fresh_work_register_name(c, reg_shared);
+    const uint32_t pool = out.add_register(pool_name, slots, ir::Role::Clean, false);
     for (uint32_t w : lives) to[w] = pool + slot_of[w];
     out.ops.reserve(c.ops.size());
     for (ir::Op& op : c.ops) {

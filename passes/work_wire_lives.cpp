@@ -1,6 +1,8 @@
 // Helpers shared by split-work-lives and share-work-wires (see work_wire_lives.h).
 #include "passes/work_wire_lives.h"
 
+#include <cctype>
+
 #include <fmt/format.h>
 
 namespace whittle::passes {
@@ -32,6 +34,18 @@ std::string fresh_work_register_name(const ir::Circuit& c, const std::vector<boo
     std::string name = "work";
     for (int k = 2; taken(name); ++k) name = fmt::format("work_{}", k);
     return name;
+}
+
+bool is_work_register_name(const std::string& name) {
+    // `work` then any number of `_<digits>` groups (split-work-lives suffixes a taken fresh name).
+    if (name.compare(0, 4, "work") != 0) return false;
+    for (size_t i = 4; i < name.size();) {
+        if (name[i] != '_' || i + 1 >= name.size() || !std::isdigit(static_cast<unsigned char>(name[i + 1])))
+            return false;
+        for (++i; i < name.size() && std::isdigit(static_cast<unsigned char>(name[i])); ++i) {
+        }
+    }
+    return true;
 }
 
 }  // namespace whittle::passes

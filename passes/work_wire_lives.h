@@ -16,4 +16,7 @@ std::vector<bool> movable_work_registers(const ir::Circuit& c);
 /// flagged in `leaving` (by register index; empty = none) do not count, they are about to go.
 std::string fresh_work_register_name(const ir::Circuit& c, const std::vector<bool>& leaving = {});
 
+/// True for the names the wire-sharing passes give (`work`, `work_2`, `work_2_1`, ...).
+bool is_work_register_name(const std::string& name);
+
 }  // namespace whittle::passes
