@@ -34,8 +34,10 @@ WHITTLE_DIFF_ZX_CIRCUITS that of phase networks and WHITTLE_DIFF_R_CIRCUITS that
 networks for rewrite-search (rule_program; compiled at every level of the rotation targets and at
 -O3 with `--optimize-for 2q --rewrite-effort 3`) (default half of that each), and
 WHITTLE_DIFF_B_CIRCUITS that of the three-wire block networks for resynth-3q (block_program; -O3 on
-the rotation targets with `--optimize-for 2q --resynth-effort 1`; default an eighth); a failure prints the
-.wq input, the configuration and a command that reproduces it.
+the rotation targets with `--optimize-for 2q --resynth-effort 1`; default an eighth), and
+WHITTLE_DIFF_W_CIRCUITS that of the work-wire programs for split-work-lives and share-work-wires
+(work_wire_program: many lives per clean wire, held constants; compiled like the random circuits;
+default a fifth); a failure prints the .wq input, the configuration and a command that reproduces it.
 """
 import math
 import os
@@ -55,6 +57,7 @@ T_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_T_CIRCUITS", str(max(1, CIRCUITS /
 ZX_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_ZX_CIRCUITS", str(max(1, CIRCUITS // 2))))
 R_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_R_CIRCUITS", str(max(1, CIRCUITS // 2))))
 B_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_B_CIRCUITS", str(max(1, CIRCUITS // 8))))
+W_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_W_CIRCUITS", str(max(1, CIRCUITS // 5))))
 RULE_TARGETS = ["cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r"]
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
@@ -515,6 +518,82 @@ def block_program(rng):
     return prog
 
 
+def work_wire_program(rng):
+    """For split-work-lives and share-work-wires: several clean work wires, each with many lives one
+    after another. Lives written by hand (w ^= a & b ... w ^= b & a, negative controls, an XOR of a
+    parity and a product), compute blocks, a life whose controls change between its halves so the
+    wire is not back at |0> after the second half (w then holds another product, undone later: a
+    split there would be wrong), constants loaded with X and held idle over many ops (which
+    split-work-lives may unload and reload), and data ops controlled by live work wires between the
+    halves. Every work wire ends at |0>."""
+    classical = rng.random() < 0.3
+    n_data = rng.randint(4, 6)
+    n_clean = rng.randint(2, 4)
+    prog = Program(n_data, n_clean, classical)
+    data = list(range(n_data))
+    work = [n_data + i for i in range(n_clean)]
+    loaded = []
+
+    def middle(live):
+        for _ in range(rng.randint(1, 4)):
+            r = rng.random()
+            free = [d for d in data if d not in live]
+            if r < 0.6 and free:
+                tgt = rng.choice(free)
+                ctl = sorted(set(live + loaded + data) - {tgt})
+                prog.mcx(tgt, lits_of(rng, pick(rng, ctl, min(len(ctl), rng.choice([1, 2])))))
+            elif free:
+                one_qubit_line(rng, prog, rng.choice(free), prog.ops, prog.lines)
+
+    for _ in range(rng.randint(5, 12)):
+        idle = [w for w in work if w not in loaded]
+        r = rng.random()
+        if r < 0.3 and idle:  # a product life, the halves' controls in any order
+            w = rng.choice(idle)
+            ctrls = pick(rng, data, rng.choice([1, 2, 2, 3]))
+            lits = lits_of(rng, ctrls)
+            prog.mcx(w, lits)
+            middle([w] + ctrls)
+            lits2 = list(lits)
+            rng.shuffle(lits2)
+            prog.mcx(w, lits2)
+        elif r < 0.45 and idle:  # an ANF value: a parity plus a product, undone in the other order
+            w = rng.choice(idle)
+            a, b, c = pick(rng, data, 3)
+            prod = [(b, True), (c, rng.random() < 0.7)]
+            prog.mcx(w, [(a, True)])
+            prog.mcx(w, prod)
+            middle([w, a, b, c])
+            prog.mcx(w, list(reversed(prod)))
+            prog.mcx(w, [(a, True)])
+        elif r < 0.6 and idle:  # controls changed between the halves: w holds c & b, undone later
+            w = rng.choice(idle)
+            a, b, c = pick(rng, data, 3)
+            prog.mcx(w, [(a, True), (b, True)])
+            prog.mcx(a, [(c, True)])
+            middle([w, a, b, c])
+            prog.mcx(w, [(b, True), (a, True)])
+            prog.mcx(a, [(c, True)])
+            middle([w, a, b, c])
+            prog.mcx(w, [(c, True), (b, True)])
+        elif r < 0.7 and idle and n_clean:  # a compute block on a work wire
+            compute_block(rng, prog, data)
+        elif r < 0.8 and idle:  # a constant loaded and held
+            w = rng.choice(idle)
+            prog.mcx(w, [])
+            loaded.append(w)
+        elif loaded and r < 0.9:  # a constant unloaded after many ops
+            for _ in range(rng.randint(4, 10)):
+                middle([])
+            w = loaded.pop(rng.randrange(len(loaded)))
+            prog.mcx(w, [])
+        else:
+            middle([])
+    for w in loaded:
+        prog.mcx(w, [])
+    return prog
+
+
 def random_program(rng, classical):
     """A random program; a classical one (X-type ops only) is one the nct target can take too."""
     n_data = rng.randint(4, 7)
@@ -838,6 +917,13 @@ def main():
         with open(path, "w") as f:
             f.write(prog.text())
         progs.append((path, prog) + reference_states(prog, rng_np))
+    rng_work = random.Random(SEED + 104729)  # its own stream, as rng_dense below
+    for i in range(W_CIRCUITS):  # compiled like the random circuits (every target and level)
+        prog = work_wire_program(rng_work)
+        path = os.path.join(tmp, f"w{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        progs.append((path, prog) + reference_states(prog, rng_np))
     for i in range(T_CIRCUITS):
         prog = t_network_program(rng)
         path = os.path.join(tmp, f"t{i:04d}.wq")
@@ -935,7 +1021,7 @@ def main():
                 failures += 1
                 print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
     shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
-    print(f"differential: seed {SEED}, {CIRCUITS} circuits x {len(configs)} configurations, "
+    print(f"differential: seed {SEED}, {CIRCUITS} circuits and {W_CIRCUITS} work-wire circuits x {len(configs)} configurations, "
           f"{T_CIRCUITS} T networks x 4, {T_CIRCUITS} dense phase networks x 4, {ZX_CIRCUITS} phase networks x 4, {T_CIRCUITS} gadget networks x 2 "
           f"and {R_CIRCUITS} rule networks (every level of the rotation targets, and -O3 with --rewrite-effort 3) "
           f"and {B_CIRCUITS} block networks (-O3 with --resynth-effort 1 on the rotation targets) "
