@@ -236,8 +236,10 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
     }
     if (o.report || final_check) source = c;
     ir::Circuit alternatives_input;
-    // (split-work-lives may run, and then the runs without it: only with clean wires to split.)
+    // (split-work-lives may run, and then the runs without it: only with clean wires to split, and
+    // up to the size where the other option runs stop too.)
     const bool may_split = o.split_work_lives && o.passes.empty() && o.level >= 2 && o.target &&
+                           c.ops.size() <= kOptionAlternativeMaxOps &&
                            std::any_of(c.qubits.begin(), c.qubits.end(),
                                        [](const ir::Qubit& q) { return q.role == ir::Role::Clean; });
     if (may_split || !alternative_runs(o, c.ops.size()).empty()) alternatives_input = c;
@@ -270,7 +272,7 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
         std::vector<std::pair<std::string, CompileOptions>> runs = alternative_runs(o, alternatives_input.ops.size());
         // Where split-work-lives changed the run asked for, every run also without it (splitting
         // frees wires and often saves T, but may split what the lowering would have paired).
-        const bool split = std::any_of(r.records.begin(), r.records.end(), [](const passes::PassRecord& rec) {
+        const bool split = may_split && std::any_of(r.records.begin(), r.records.end(), [](const passes::PassRecord& rec) {
             return rec.name == "split-work-lives" && rec.changed;
         });
         if (split) {

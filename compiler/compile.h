@@ -45,7 +45,7 @@ struct CompileOptions {
     uint32_t rewrite_effort = 1;
     uint32_t resynth_effort = 0;    ///< resynth-3q budget at -O3 (0 = off; PassOptions::resynth_effort)
     /// split-work-lives before the lowering (PassOptions::split_work_lives); compile also tries the
-    /// runs without it when it split anything, and keeps the cheaper.
+    /// runs without it when it split anything (inputs up to 2^20 ops), and keeps the cheaper.
     bool split_work_lives = true;
     /// The approximation error allowed for the whole circuit (clifford+t): split evenly over the
     /// rotations the synthesis approximates, so the report's approximation_error_bound stays within
