@@ -31,6 +31,7 @@ ROUTINES = {
     "mod_mul_const (x: 4 bits, N = 2^n - 1, k = 5)": ("qubit x[4], out[{n}]", "mod_mul_const(x, out, 5, {N})", [4, 8, 16]),
     "mod_add_const (N = 2^n - 1, k = 5)": ("qubit b[{n}]", "mod_add_const(b, 5, {N})"),
     "gf2_mul (trinomial / pentanomial)": ("qubit a[{n}], b[{n}], c[{n}]", "gf2_mul(a, b, c, {poly})"),
+    "gf2_mul_karatsuba (trinomial / pentanomial)": ("qubit a[{n}], b[{n}], c[{n}]", "gf2_mul_karatsuba(a, b, c, {poly})"),
     "diffuse": ("qubit r[{n}]", "diffuse(r)"),
     "when ctl { add }": ("qubit a[{n}], b[{n}], ctl", "when ctl {{ add(a, b) }}"),
     "when ctl { add_and }": ("qubit a[{n}], b[{n}], ctl", "when ctl {{ add_and(a, b) }}"),

@@ -37,6 +37,7 @@ enum class ExprKind : uint8_t {
     Pi,      ///< the constant pi
     Name,    ///< sym
     Index,   ///< sym[lhs]
+    Slice,   ///< sym[lhs..rhs]: wires lhs to rhs of a register (both included), only as a routine's register argument
     Call,    ///< sym(lhs): built-in functions on registers, e.g. size(a)
     Neg,     ///< -lhs
     Not,     ///< !lhs

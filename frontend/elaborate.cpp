@@ -514,6 +514,7 @@ void Elaborator::exec_measure(const File& f, const Stmt& s) {
     check_not_controlled(loc, "'measure'");
     uint32_t w = resolve_wire(f, s.targets[0]);
     const Expr& be = f.exprs[s.expr];
+    if (be.kind == ExprKind::Slice) fail(f, be, "a measurement writes one bit: expected a bit name or name[i], not a slice");
     const Binding* b = lookup(be.sym);
     if (!b) {
         if (be.kind == ExprKind::Index)

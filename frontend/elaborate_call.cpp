@@ -83,10 +83,15 @@ void Elaborator::exec_call(const File& f, const Stmt& s) {
             break;
         case ParamKind::Register: {
             const Expr& e = f.exprs[ae];
-            const Binding* rb = e.kind == ExprKind::Name ? lookup(e.sym) : nullptr;
-            if (!rb || rb->kind != Binding::Register)
-                fail(f, e, fmt::format("parameter '{}' of '{}' is a register: pass a register name", name(p.sym), name(r.sym)));
-            b = *rb;
+            if (e.kind == ExprKind::Slice) {
+                b = resolve_slice(f, ae);
+            } else {
+                const Binding* rb = e.kind == ExprKind::Name ? lookup(e.sym) : nullptr;
+                if (!rb || rb->kind != Binding::Register)
+                    fail(f, e, fmt::format("parameter '{}' of '{}' is a register: pass a register name or a slice name[i..j]",
+                                           name(p.sym), name(r.sym)));
+                b = *rb;
+            }
             for (uint32_t k = 0; k < b.size; ++k) claim(b.first + k, i);
             break;
         }

@@ -91,6 +91,7 @@ Number Elaborator::eval_number(const File& f, uint32_t ei) const {
                                                                     name(e.sym), b->table->size() - 1));
         return Number{Number::Rat, (*b->table)[size_t(i)], 1, 0.0};
     }
+    case ExprKind::Slice: fail(f, e, slice_misuse(name(e.sym)));
     case ExprKind::Table: fail(f, e, "expected a number, found a table [...] (bind it with `let` or pass it as an `int name[]`)");
     case ExprKind::Call: {
         if (name(e.sym) != "size") return eval_function(f, e);
@@ -349,8 +350,33 @@ ir::Angle Elaborator::eval_angle(const File& f, uint32_t e) const {
     return {};
 }
 
+std::string slice_misuse(const std::string& reg) {
+    return fmt::format("a slice {}[i..j] is a register argument of a routine call; here a wire or a number is expected", reg);
+}
+
+Binding Elaborator::resolve_slice(const File& f, uint32_t ei) const {
+    const Expr& e = f.exprs[ei];
+    const Binding* b = lookup(e.sym);
+    if (!b) fail(f, e, fmt::format("unknown register '{}'", name(e.sym)));
+    if (b->kind != Binding::Register || b->scalar)
+        fail(f, e, fmt::format("'{}' is not a register of wires, so it has no slice {}[i..j]", name(e.sym), name(e.sym)));
+    const int64_t first = eval_int(f, e.lhs, "a slice bound"), last = eval_int(f, e.rhs, "a slice bound");
+    for (uint32_t bound : {e.lhs, e.rhs}) {
+        const int64_t v = bound == e.lhs ? first : last;
+        if (v < 0 || v >= int64_t(b->size))
+            fail(f, f.exprs[bound], fmt::format("slice bound {} is out of range for '{}' (wires 0..{})", v, name(e.sym), b->size - 1));
+    }
+    if (first > last)
+        fail(f, e, fmt::format("slice {}[{}..{}] is reversed: the first index must not exceed the last", name(e.sym), first, last));
+    Binding s = *b;
+    s.first = b->first + uint32_t(first);
+    s.size = uint32_t(last - first + 1);
+    return s;
+}
+
 uint32_t Elaborator::resolve_wire(const File& f, uint32_t ei) const {
     const Expr& e = f.exprs[ei];
+    if (e.kind == ExprKind::Slice) fail(f, e, slice_misuse(name(e.sym)));
     if (e.kind != ExprKind::Name && e.kind != ExprKind::Index)
         fail(f, e, "expected a wire (a name or name[index])");
     const Binding* b = lookup(e.sym);
@@ -436,6 +462,7 @@ uint32_t Elaborator::build_bool_node(const File& f, uint32_t ei, BoolExpr& out) 
     case ExprKind::Shr:
         fail(f, e, "expected a Boolean expression over wires (& ^ | ! parentheses, 0, 1, comparisons of registers), "
                    "found arithmetic");
+    case ExprKind::Slice: fail(f, e, slice_misuse(name(e.sym)));
     case ExprKind::Real:
     case ExprKind::Pi:
     case ExprKind::Table:

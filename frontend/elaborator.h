@@ -36,6 +36,9 @@ struct Binding {
     bool scalar = false;
 };
 
+/// The message for a slice `reg[i..j]` used where a wire or a number is expected.
+std::string slice_misuse(const std::string& reg);
+
 class Elaborator {
 public:
     Elaborator(SourceManager& sm, const LoadOptions& opts);
@@ -87,6 +90,8 @@ private:
     std::shared_ptr<const std::vector<int64_t>> eval_table(const File& f, uint32_t e) const;
     ir::Angle eval_angle(const File& f, uint32_t e) const;
     uint32_t resolve_wire(const File& f, uint32_t e) const;
+    /// `r[i..j]`: the register binding of wires i..j of register r (bounds checked, i <= j).
+    Binding resolve_slice(const File& f, uint32_t e) const;
     void resolve_wires(const File& f, uint32_t e, std::vector<uint32_t>& out) const;
     /// Builds `out` from an expression; `with_controls` puts the `when` controls in front (AND).
     void build_bool(const File& f, uint32_t e, BoolExpr& out, bool with_controls) const;

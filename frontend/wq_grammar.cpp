@@ -308,6 +308,14 @@ private:
             DepthGuard g(*this, t);
             open(Tok::LBracket, "'['");
             uint32_t idx = parse_expr();
+            if (is(Tok::DotDot)) {  // a slice r[i..j]
+                advance();
+                uint32_t last = parse_expr();
+                close(Tok::RBracket, "']' after the slice's last index");
+                uint32_t n = node(ExprKind::Slice, t, idx, last);
+                file_.exprs[n].sym = sym;
+                return n;
+            }
             close(Tok::RBracket, "']' after the index");
             uint32_t n = node(ExprKind::Index, t, idx);
             file_.exprs[n].sym = sym;
@@ -583,6 +591,8 @@ private:
             if (!is(Tok::Ident)) expected(fmt::format("a name to declare after '{}'", t.text));
             uint32_t w = parse_wire("a name to declare");
             if (file_.exprs[w].kind == ExprKind::Call) fail(t, "expected a name to declare");
+            if (file_.exprs[w].kind == ExprKind::Slice)
+                throw UserError("a declaration takes a size, name[n], not a slice name[i..j]", file_.loc_of(file_.exprs[w]));
             st(s).targets.push_back(w);
             if (!is(Tok::Comma)) break;
             advance();

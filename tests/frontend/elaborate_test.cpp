@@ -154,6 +154,34 @@ maj(p, q, s)
           "s ^= p & q\np ^= s\nq ^= s\n");
 }
 
+TEST_CASE("register slices r[i..j] as register arguments: both bounds included, nested slices, located errors") {
+    ir::Circuit c = load(R"(
+routine ladder(r[]) { for i in 0..size(r)-2 { r[i+1] ^= r[i] } }
+routine halves(r[]) { ladder(r[0..1]); ladder(r[size(r)-2..size(r)-1]) }
+qubit a[5]
+let k = 1
+ladder(a[k..k+2])
+halves(a[1..4])
+ladder(a[4..4])
+)");
+    CHECK(ops_text(c) == "a[2] ^= a[1]\na[3] ^= a[2]\na[2] ^= a[1]\na[4] ^= a[3]\n");
+    CHECK(error_of("routine f(r[]) { x r[0] }\nqubit a[4]\nf(a[1..4])\n") ==
+          "3:8: slice bound 4 is out of range for 'a' (wires 0..3)");
+    CHECK(error_of("routine f(r[]) { x r[0] }\nqubit a[4]\nf(a[0-1..2])\n") ==
+          "3:6: slice bound -1 is out of range for 'a' (wires 0..3)");
+    CHECK(error_of("routine f(r[]) { x r[0] }\nqubit a[4]\nf(a[3..1])\n") ==
+          "3:3: slice a[3..1] is reversed: the first index must not exceed the last");
+    CHECK(error_of("routine f(r[], s[]) { x r[0] }\nqubit a[4]\nf(a[0..2], a[2..3])\n").find("'a[2]' is passed twice to 'f'") !=
+          std::string::npos);
+    CHECK(error_of("qubit a[4]\nx a[0..1]\n") ==
+          "2:3: a slice a[i..j] is a register argument of a routine call; here a wire or a number is expected");
+    CHECK(error_of("routine f(q) { x q }\nqubit a[4]\nf(a[0..1])\n").find("a slice a[i..j] is a register argument") !=
+          std::string::npos);
+    CHECK(error_of("routine f(r[]) { x r[0] }\nqubit s\nf(s[0..0])\n") ==
+          "3:3: 's' is not a register of wires, so it has no slice s[i..j]");
+    CHECK(error_of("qubit a[0..3]\n") == "1:7: a declaration takes a size, name[n], not a slice name[i..j]");
+}
+
 TEST_CASE("when around a call controls every op of the routine") {
     ir::Circuit c = load("routine f(x, y) { h x; y ^= x }\nqubit k, a, b\nwhen !k { f(a, b) }\n");
     CHECK(ops_text(c) == "when !k { h a }\nb ^= !k & a\n");

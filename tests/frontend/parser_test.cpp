@@ -51,6 +51,7 @@ std::string show(const File& f, const SymbolTable& s, uint32_t e) {
     case ExprKind::Pi: return "pi";
     case ExprKind::Name: return s.name(x.sym);
     case ExprKind::Index: return s.name(x.sym) + "[" + show(f, s, x.lhs) + "]";
+    case ExprKind::Slice: return s.name(x.sym) + "[" + show(f, s, x.lhs) + ".." + show(f, s, x.rhs) + "]";
     case ExprKind::Call: return s.name(x.sym) + "(" + show(f, s, x.lhs) + ")";
     case ExprKind::Neg: return "-" + show(f, s, x.lhs);
     case ExprKind::Not: return "!" + show(f, s, x.lhs);
@@ -122,6 +123,17 @@ TEST_CASE("table literals: entries are expressions, may span lines, may be empty
     CHECK(f.routines[0].params[1].kind == ParamKind::Qubit);
     CHECK(error_of("let t = [1 2]\n") == "1:12: expected ',' or ']' in the table, found '2'");
     CHECK(error_of("routine f(angle a[]) { }\n") == "1:18: expected ',' or ')' (angle parameters take no '[]'), found '['");
+}
+
+TEST_CASE("register slices: r[i..j] with expression bounds, as call arguments") {
+    auto p = parse("f(a[0..n-1], b[2 * k..size(b) - 1], c[1])\n");
+    const File& f = p->file;
+    REQUIRE(f.stmts[0].args.size() == 3);
+    CHECK(show(f, p->syms, f.stmts[0].args[0]) == "a[0..(n-1)]");
+    CHECK(show(f, p->syms, f.stmts[0].args[1]) == "b[(2*k)..(size(b)-1)]");
+    CHECK(show(f, p->syms, f.stmts[0].args[2]) == "c[1]");
+    CHECK(error_of("f(a[0..])\n") == "1:8: expected an expression (a name, a number, 'pi' or '('), found ']'");
+    CHECK(error_of("f(a[0..2)\n") == "1:9: expected ']' after the slice's last index, found ')'");
 }
 
 TEST_CASE("binary operators associate to the left") {
