@@ -91,14 +91,20 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
         extra_counts.push_back(0);
     // Every combination of: each level from -O1 up, measurement as asked or off, extra wires as
     // asked or none, each metric; gadget wires only in the run asked for (every alternative runs
-    // without them). The set of a run with fewer options is a subset of this one's, so the kept
-    // result can only improve as options are added.
+    // without them); under --qubit-limit also each with work wires taken only where they are live
+    // already. The set of a run with fewer options is a subset of this one's, so the kept result
+    // can only improve as options are added.
+    std::vector<bool> within_lives = {o.work_wires_within_lives};
+    if (o.qubit_limit && !o.work_wires_within_lives) within_lives.push_back(true);
+    for (bool within : within_lives)
     for (int level = o.level; level >= 1; --level)
         for (bool measurement : {o.allow_measurement, false})
             for (uint32_t extra : extra_counts)
                 for (ir::Metric m : {o.optimize_for, ir::Metric::TCount, ir::Metric::TwoQubit, ir::Metric::Depth}) {
                     if (measurement && !o.allow_measurement) continue;
+                    if (within && extra != 0 && !o.work_wires_within_lives) continue;  // adds no wire there
                     CompileOptions a = o;
+                    a.work_wires_within_lives = within;
                     a.level = level;
                     a.allow_measurement = measurement;
                     a.gadget_wires = 0;
@@ -113,6 +119,7 @@ std::vector<std::pair<std::string, CompileOptions>> alternative_runs(const Compi
                     if (extra != o.extra_ancillas)
                         why.push_back(extra == 0 ? std::string("without --extra-ancillas") : fmt::format("with --extra-ancillas {}", extra));
                     if (m != o.optimize_for) why.push_back(fmt::format("with constructions chosen for {}", ir::metric_name(m)));
+                    if (within != o.work_wires_within_lives) why.push_back("with work wires taken only where they are live");
                     if (why.empty()) continue;  // the run asked for, or a repeat of it
                     const std::string label = fmt::format("{}", fmt::join(why, ", "));
                     if (std::any_of(alts.begin(), alts.end(), [&](const auto& p) { return p.first == label; })) continue;
@@ -143,6 +150,8 @@ passes::PassOptions pass_options(const CompileOptions& o) {
     po.rewrite_effort = o.rewrite_effort;
     po.resynth_effort = o.resynth_effort;
     po.split_work_lives = o.split_work_lives;
+    po.work_wires_within_lives = o.work_wires_within_lives;
+    po.qubit_limit = o.qubit_limit;
     return po;
 }
 
@@ -266,6 +275,21 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
     unlimited.qubit_limit.reset();
     ir::Resources unlimited_best = ir::count_resources(c);
     uint32_t fewest_qubits = unlimited_best.qubits;
+    if (o.qubit_limit && !alternatives_input.ops.empty()) {
+        // The runs under the limit already steer by it (reduce-t undoes rebuilds that pass it), so
+        // the run asked for without the limit, once, for what the limit cost.
+        ir::Circuit a = alternatives_input;
+        CompileOptions free_run = unlimited;
+        free_run.passes_done = nullptr;
+        free_run.progress = nullptr;
+        try {
+            passes::run_passes(a, pass_names(free_run), pass_options(free_run));
+            const ir::Resources res = ir::count_resources(a);
+            if (cost_under(res, unlimited) < cost_under(unlimited_best, unlimited)) unlimited_best = res;
+        } catch (const UserError&) {
+            // That run has no form for some op (e.g. no work wire for an NCT lowering): no note.
+        }
+    }
     if (!alternatives_input.ops.empty()) {
         auto best = cost_under(unlimited_best, o);
         const CompileOptions* kept = nullptr;
@@ -292,7 +316,14 @@ CompileResult compile_once(ir::Circuit c, const CompileOptions& o) {
         }
         for (auto& [why, alt] : runs) {
             ir::Circuit a = alternatives_input;
-            std::vector<passes::PassRecord> records = passes::run_passes(a, pass_names(alt), pass_options(alt));
+            std::vector<passes::PassRecord> records;
+            try {
+                records = passes::run_passes(a, pass_names(alt), pass_options(alt));
+            } catch (const UserError&) {
+                // A run with fewer options may have no form for some op (an NCT lowering with no
+                // work wire): it is not a candidate, and the run asked for stands.
+                continue;
+            }
             const ir::Resources res = ir::count_resources(a);
             const auto cost = cost_under(res, o);
             if (cost_under(res, unlimited) < cost_under(unlimited_best, unlimited)) unlimited_best = res;

@@ -47,13 +47,16 @@ struct CompileOptions {
     /// split-work-lives before the lowering (PassOptions::split_work_lives); compile also tries the
     /// runs without it when it split anything (inputs up to 2^20 ops), and keeps the cheaper.
     bool split_work_lives = true;
+    /// lower-controls takes work wires only where they are live already (PassOptions::
+    /// work_wires_within_lives); compile tries it under qubit_limit.
+    bool work_wires_within_lives = false;
     /// The approximation error allowed for the whole circuit (clifford+t): split evenly over the
     /// rotations the synthesis approximates, so the report's approximation_error_bound stays within
     /// it; replaces `epsilon` (set one or the other). In [1e-15, 1).
     std::optional<double> total_error;
     /// The most qubits the output may have: among the runs compile tries (levels, with and without
     /// --allow-measurement and --extra-ancillas, each construction metric, shared or fresh work
-    /// wires) the cheapest that fits is kept, even when an unlimited run is cheaper; UserError when
+    /// wires, work wires taken only inside their lives) the cheapest that fits is kept, even when an unlimited run is cheaper; UserError when
     /// none fits. Inputs of any size then try the alternative runs.
     std::optional<uint32_t> qubit_limit;
     std::string passes;                ///< run exactly this comma-separated list ("" = the -O pipeline)

@@ -178,7 +178,8 @@ std::vector<uint32_t> ControlLowerer::take_clean(size_t n, const std::vector<uin
     for (uint32_t w : busy) scratch_[w] = 1;
     // Exclude wires already holding a value for an enclosing construction.
     std::vector<uint32_t> out;
-    for (int round = lives_ ? 0 : 1; round < 2; ++round)
+    const int rounds = lives_ && within_lives_ ? 1 : 2;
+    for (int round = lives_ ? 0 : 1; round < rounds; ++round)
         for (uint32_t w : clean_zero_) {
             if (out.size() == n) break;
             if (scratch_[w] || in_use_[w]) continue;
@@ -197,8 +198,17 @@ void ControlLowerer::release_clean(const std::vector<uint32_t>& wires) {
 
 std::vector<uint32_t> ControlLowerer::borrow(size_t n, const std::vector<uint32_t>& busy) {
     for (uint32_t w : busy) scratch_[w] = 1;
+    // Only within lives: a clean wire at |0> outside its life is not borrowed (it would become live).
+    std::vector<uint32_t> idle;
+    if (lives_ && within_lives_)
+        for (uint32_t w : clean_zero_)
+            if (!scratch_[w] && !lives_->inside_life(w)) {
+                scratch_[w] = 1;
+                idle.push_back(w);
+            }
     std::vector<uint32_t> out = pick_wires(nullptr, c_.num_qubits(), scratch_, n);
     for (uint32_t w : busy) scratch_[w] = 0;
+    for (uint32_t w : idle) scratch_[w] = 0;
     return out;
 }
 

@@ -100,6 +100,10 @@ public:
     /// encloses the op, so a construction's work wires add no qubit that share-work-wires could
     /// have saved; then in wire order.
     void prefer_wires_inside_lives(const CleanWireTracker& lives) { lives_ = &lives; }
+    /// With prefer_wires_inside_lives: take clean wires only inside their lives, and borrow no clean
+    /// wire at |0> outside its life, so no construction makes a work wire live where it was not
+    /// (the lowered circuit's peak of live qubits stays the input's; the constructions may cost more).
+    void only_within_lives(bool on) { within_lives_ = on; }
     void reset_choice() {
         top_choice_.clear();
         top_method_.clear();
@@ -120,6 +124,7 @@ private:
     OpSink* sink_;
     const std::set<uint32_t>& clean_zero_;
     const CleanWireTracker* lives_ = nullptr;  // see prefer_wires_inside_lives
+    bool within_lives_ = false;                 // see only_within_lives
     ControlStyle style_;
     bool classical_only_;
     int64_t rotation_t_cost_, rotation_depth_cost_;

@@ -92,7 +92,7 @@ lowering::ControlStyle style_of(Metric m) {
 PassResult lower_controls(ir::Circuit& c, const PassOptions& opts) {
     PassResult r;
     if (std::none_of(c.ops.begin(), c.ops.end(), needs_lowering)) return r;
-    if (const uint32_t added = add_work_wires(c, opts.extra_ancillas)) {
+    if (const uint32_t added = opts.work_wires_within_lives ? 0 : add_work_wires(c, opts.extra_ancillas)) {
         r.count("work-wires-added", added);
         r.notes.push_back(fmt::format("added {} clean work wire(s) (--extra-ancillas {})", added, opts.extra_ancillas));
     }
@@ -110,6 +110,7 @@ PassResult lower_controls(ir::Circuit& c, const PassOptions& opts) {
     lowering::ControlLowerer lw(c, sink, tracker.zero_wires(), style_of(opts.optimize_for), opts.target == ir::Target::Nct,
                                 std::max<int64_t>(rotation_t, 1), rotation_depth);
     lw.prefer_wires_inside_lives(tracker);
+    lw.only_within_lives(opts.work_wires_within_lives);
     size_t lowered = 0;
     for (size_t i = 0; i < c.ops.size(); ++i) {
         const ir::Op& op = c.ops[i];

@@ -26,6 +26,8 @@ struct PassOptions {
     double epsilon = 1e-10;           ///< per-rotation approximation error (clifford+t)
     uint32_t resynth_effort = 0;      ///< resynth-3q budget (0 = off, the default; each unit: 4000 optimizer steps per block, 400000 per pass)
     bool split_work_lives = true;     ///< run split-work-lives before the lowering (-O2 and up, with a target)
+    bool work_wires_within_lives = false;
+    std::optional<uint32_t> qubit_limit;  ///< --qubit-limit: reduce-t keeps no rebuild that lifts the peak of live qubits above it ///< lower-controls takes or borrows a work wire only where it is live already (no wire added)
     uint32_t rewrite_effort = 1;      ///< rewrite-search budget (0 = off; each unit: 32 rounds, 4000 rewrites, 150000 match attempts)
 };
 

@@ -49,7 +49,18 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
     // inner H gates by Hadamard gadgets (tcount/hadamard_gadgets.h), so that the engine sees whole
     // stretches as one region on n + h wires; it is kept only when it ends with fewer T gates
     // than the plain run, so the option never makes the T-count worse.
-    const bool gadgets = opts.allow_measurement && opts.gadget_wires > 0 && c.ops.size() <= kGadgetMaxOps;
+    const bool gadgets = opts.allow_measurement && opts.gadget_wires > 0 && c.ops.size() <= kGadgetMaxOps &&
+                         !opts.work_wires_within_lives;
+    // Where the lowering kept every work wire inside its life (PassOptions::work_wires_within_lives)
+    // or the run has a qubit limit, a rebuilt region may stretch a life across it: the pass is
+    // undone if it raised the peak of live qubits above both the limit and the peak before it.
+    const bool guard_peak = opts.work_wires_within_lives || opts.qubit_limit;
+    ir::Circuit before;
+    uint32_t peak_cap = 0;
+    if (guard_peak) {
+        before = c;
+        peak_cap = std::max(ir::count_resources(c).peak_live_qubits, opts.qubit_limit.value_or(0));
+    }
     ir::Circuit with_gadgets;
     if (gadgets) with_gadgets = c;
     result.changed = tcount::reduce_t_count(c, s, st);
@@ -81,6 +92,13 @@ PassResult reduce_t(ir::Circuit& c, const PassOptions& opts) {
                 result.count("gadget-wires", int64_t(gst.wires));
             }
         }
+    }
+    if (guard_peak && result.changed && ir::count_resources(c).peak_live_qubits > peak_cap) {
+        result.notes.push_back(fmt::format("undone: the rebuilt regions raised the peak of live qubits above {}", peak_cap));
+        c = std::move(before);
+        result.changed = false;
+        result.count("undone-for-peak-qubits");
+        return result;
     }
     if (st.hadamards_removed) result.count("hadamards-removed", int64_t(st.hadamards_removed));
     result.count("regions", int64_t(st.regions));

@@ -37,7 +37,10 @@ WHITTLE_DIFF_B_CIRCUITS that of the three-wire block networks for resynth-3q (bl
 the rotation targets with `--optimize-for 2q --resynth-effort 1`; default an eighth), and
 WHITTLE_DIFF_W_CIRCUITS that of the work-wire programs for split-work-lives and share-work-wires
 (work_wire_program: many lives per clean wire, held constants; compiled like the random circuits;
-default a fifth); a failure prints the .wq input, the configuration and a command that reproduces it.
+default a fifth), and WHITTLE_DIFF_N_CIRCUITS that of the narrow programs compiled under
+`--qubit-limit` set to their high-level qubit count (narrow_program: work-wire lives around ops with
+3 to 5 controls; clifford+t and cx+rz+sx, and nct for classical ones, at -O2 and -O3; an output over
+the limit is a failure, a located "no compile fits" is counted; default an eighth); a failure prints the .wq input, the configuration and a command that reproduces it.
 """
 import math
 import os
@@ -58,6 +61,7 @@ ZX_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_ZX_CIRCUITS", str(max(1, CIRCUITS
 R_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_R_CIRCUITS", str(max(1, CIRCUITS // 2))))
 B_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_B_CIRCUITS", str(max(1, CIRCUITS // 8))))
 W_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_W_CIRCUITS", str(max(1, CIRCUITS // 5))))
+N_CIRCUITS = int(os.environ.get("WHITTLE_DIFF_N_CIRCUITS", str(max(1, CIRCUITS // 8))))
 RULE_TARGETS = ["cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r"]
 TARGETS = ["clifford+t", "cx+rz+sx", "cz+rx+rz", "iswap+rz+rx", "xx+r", "u+cx", "nct"]
 LEVELS = ["-O0", "-O1", "-O2", "-O3"]
@@ -594,6 +598,53 @@ def work_wire_program(rng):
     return prog
 
 
+def narrow_program(rng):
+    """For --qubit-limit (lower-controls taking work wires only inside their lives, reduce-t undoing
+    a rebuild that lifts the peak): clean work wires with several lives each, and between them
+    multi-controlled ops (3 to 5 controls, either polarity, on data wires, some controlled by a live
+    work wire) whose constructions want clean wires, where a clean wire outside its life would add a
+    qubit. Compiled with the limit set to the peak the high-level compile reaches."""
+    classical = rng.random() < 0.3
+    n_data = rng.randint(5, 7)
+    n_clean = rng.randint(2, 3)
+    prog = Program(n_data, n_clean, classical)
+    data = list(range(n_data))
+    work = [n_data + i for i in range(n_clean)]
+
+    def wide_op(live):
+        tgt = rng.choice(data)
+        pool = sorted(set(data + live) - {tgt})
+        lits = lits_of(rng, pick(rng, pool, min(len(pool), rng.randint(3, 5))))
+        if not classical and rng.random() < 0.3:
+            k = rng.choice([1, 2, 3, -1, 5])
+            prog.lines.append(f"phase({k}*pi/4) " + " & ".join(prog.lit(w, p) for w, p in lits + [(tgt, True)]))
+            prog.ops.append(("phase", k * math.pi / 4, list(lits) + [(tgt, True)]))
+        else:
+            prog.mcx(tgt, lits)
+
+    for _ in range(rng.randint(3, 6)):
+        r = rng.random()
+        if r < 0.5:  # a product life with wide ops inside it
+            w = rng.choice(work)
+            ctrls = pick(rng, data, 2)
+            lits = lits_of(rng, ctrls)
+            prog.mcx(w, lits)
+            for _ in range(rng.randint(1, 2)):
+                wide = [w]
+                tgt_pool = [d for d in data if d not in ctrls]
+                tgt = rng.choice(tgt_pool)
+                pool = sorted(set(data + wide) - {tgt})
+                prog.mcx(tgt, lits_of(rng, pick(rng, pool, min(len(pool), rng.randint(3, 4)))))
+            lits2 = list(lits)
+            rng.shuffle(lits2)
+            prog.mcx(w, lits2)
+        elif r < 0.8:
+            wide_op([])
+        else:
+            one_qubit_line(rng, prog, rng.choice(data), prog.ops, prog.lines)
+    return prog
+
+
 def random_program(rng, classical):
     """A random program; a classical one (X-type ops only) is one the nct target can take too."""
     n_data = rng.randint(4, 7)
@@ -974,7 +1025,7 @@ def main():
     configs += [(t, "-O3", "blocks") for t in RULE_TARGETS]
     configs += [(t, "-O3", "rules") for t in RULE_TARGETS]
     configs += [("clifford+t", o, "gadgets") for o in ("-O2", "-O3")]
-    checked = failures = refused = gadget_outputs = 0
+    checked = failures = refused = gadget_outputs = limit_checked = 0
     all_progs = progs
     for target, level, meas in configs:
         progs = [p for p in all_progs if p[1].classical] if target == "nct" else all_progs
@@ -1020,6 +1071,50 @@ def main():
             if msg:
                 failures += 1
                 print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
+
+    # --qubit-limit: each narrow program compiled with the limit set to the qubits of its high-level
+    # compile (-O2, no target: the peak of live qubits once work-wire lives are packed).
+    rng_narrow = random.Random(SEED + 15485863)
+    limit_missed = 0
+    for i in range(N_CIRCUITS):
+        prog = narrow_program(rng_narrow)
+        path = os.path.join(tmp, f"n{i:04d}.wq")
+        with open(path, "w") as f:
+            f.write(prog.text())
+        data, ref_out = reference_states(prog, rng_np)
+        res = subprocess.run([WHITTLE, "compile", path, "-O2", "-o", os.devnull], capture_output=True, text=True)
+        m = re.search(r": (\d+) qubits", res.stderr + res.stdout)
+        if res.returncode != 0 or not m:
+            failures += 1
+            print(f"FAIL high-level compile of {path}: exit {res.returncode}\n{res.stderr[:400]}\n--- input\n{prog.text()}")
+            continue
+        limit = int(m.group(1))
+        for target in (["nct"] if prog.classical else []) + ["clifford+t", "cx+rz+sx"]:
+            for level in ("-O2", "-O3"):
+                out = os.path.join(tmp, f"n{i:04d}_{target}{level}.qasm".replace("+", "_"))
+                cmd = [WHITTLE, "compile", path, "--target", target, level, "--qubit-limit", str(limit),
+                       "--emit", "qasm2", "-o", out]
+                how = " ".join(cmd)
+                res = subprocess.run(cmd, capture_output=True, text=True)
+                if res.returncode != 0:
+                    if "no compile of this input fits" in res.stderr and not os.path.exists(out):
+                        limit_missed += 1  # a located refusal, not a wrong circuit; counted below
+                        print(f"note: limit {limit} not reached: {how}\n  {res.stderr.strip()[:300]}")
+                        continue
+                    failures += 1
+                    print(f"FAIL (exit {res.returncode}) {how}\n  {res.stderr[:400]}\n--- input\n{prog.text()}")
+                    continue
+                with open(out) as f:
+                    text = f.read()
+                q = QasmOutput(text)
+                checked += 1
+                limit_checked += 1
+                msg = check_output(prog, text, data, ref_out)
+                if q.n > limit:
+                    msg = (msg + "; " if msg else "") + f"{q.n} qubits over --qubit-limit {limit}"
+                if msg:
+                    failures += 1
+                    print(f"FAIL {how}\n  {msg}\n--- input\n{prog.text()}")
     shutil.rmtree(tmp) if failures == 0 else print(f"inputs and outputs kept in {tmp}")
     print(f"differential: seed {SEED}, {CIRCUITS} circuits and {W_CIRCUITS} work-wire circuits x {len(configs)} configurations, "
           f"{T_CIRCUITS} T networks x 4, {T_CIRCUITS} dense phase networks x 4, {ZX_CIRCUITS} phase networks x 4, {T_CIRCUITS} gadget networks x 2 "
@@ -1027,7 +1122,9 @@ def main():
           f"and {B_CIRCUITS} block networks (-O3 with --resynth-effort 1 on the rotation targets) "
           f"(clifford+t -O2, -O3, with and without --gadget-wires 6): "
           f"{checked} outputs checked by numpy ({gadget_outputs} with Hadamard gadgets kept), {failures} failures, "
-          f"{refused} refused with a located reason (nct)")
+          f"{refused} refused with a located reason (nct); "
+          f"{N_CIRCUITS} narrow programs under --qubit-limit (their high-level qubits): {limit_checked} outputs checked, "
+          f"{limit_missed} runs found no compile within the limit")
     if T_CIRCUITS >= 10 and gadget_outputs == 0:
         failures += 1
         print("FAIL no output of the --gadget-wires runs kept a gadget: the gadget path went untested")
